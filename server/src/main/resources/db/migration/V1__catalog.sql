@@ -1,0 +1,1 @@
+create table t (id bigint primary key);
