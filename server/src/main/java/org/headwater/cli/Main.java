@@ -1,0 +1,40 @@
+package org.headwater.cli;
+
+import picocli.CommandLine;
+import picocli.CommandLine.Command;
+
+/** The {@code headwater} command: entry point of the runnable jar. */
+@Command(name = "headwater", mixinStandardHelpOptions = true, versionProvider = VersionProvider.class,
+        description = "A lineage-aware catalog of a team's files, tables and scripts.",
+        subcommands = {ServeCommand.class, HarvestCommand.class, SearchCommand.class, ShowCommand.class,
+                ReindexCommand.class, DemoCommand.class, CommandLine.HelpCommand.class})
+public final class Main implements Runnable {
+
+    /** Exit codes of every command. */
+    public static final int OK = 0;
+    public static final int PROBLEMS = 1;
+    public static final int USAGE = 2;
+
+    @CommandLine.Spec
+    CommandLine.Model.CommandSpec spec;
+
+    public static void main(String[] args) {
+        System.exit(run(args));
+    }
+
+    /** Runs a command line and returns its exit code; tests call this instead of {@link #main}. */
+    public static int run(String... args) {
+        CommandLine cli = new CommandLine(new Main());
+        cli.setExitCodeExceptionMapper(e -> e instanceof CommandLine.ParameterException ? USAGE : PROBLEMS);
+        cli.setExecutionExceptionHandler((e, commandLine, parseResult) -> {
+            commandLine.getErr().println("headwater: " + Problems.describe(e));
+            return Problems.exitCode(e);
+        });
+        return cli.execute(args);
+    }
+
+    @Override
+    public void run() {
+        throw new CommandLine.ParameterException(spec.commandLine(), "Name a command; see 'headwater --help'.");
+    }
+}

@@ -1,0 +1,29 @@
+package org.headwater.harvest.format;
+
+import java.util.List;
+import org.headwater.model.DatasetKind;
+
+/** The readers the harvester tries, in order; a file no reader accepts is recorded as an opaque dataset. */
+public final class FormatRegistry {
+    private final List<FormatReader> readers;
+
+    public FormatRegistry(List<FormatReader> readers) {
+        this.readers = List.copyOf(readers);
+    }
+
+    /** The readers that ship with Headwater. */
+    public static FormatRegistry standard() {
+        return new FormatRegistry(List.of(new DelimitedTextReader(), new JsonRecordsReader(), new FigureReader()));
+    }
+
+    /** Reads the sample with the first reader that accepts it. */
+    public Reading read(Sample sample) throws UnreadableFileException {
+        for (FormatReader reader : readers) {
+            if (reader.accepts(sample)) {
+                return reader.read(sample);
+            }
+        }
+        String format = sample.extension().isEmpty() ? "unknown" : sample.extension();
+        return Reading.opaque(format, DatasetKind.OTHER);
+    }
+}

@@ -1,0 +1,206 @@
+package org.headwater.harvest.format;
+
+import com.fasterxml.jackson.core.JsonParser;
+import com.fasterxml.jackson.core.JsonToken;
+import com.fasterxml.jackson.databind.JsonNode;
+import com.fasterxml.jackson.databind.ObjectMapper;
+import java.io.IOException;
+import java.util.ArrayList;
+import java.util.Iterator;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+import java.util.Set;
+import java.util.TreeSet;
+import org.headwater.model.ColumnDef;
+import org.headwater.model.DatasetKind;
+
+/**
+ * Reads JSON that holds records: an array of objects, an object holding such an array, or one object
+ * per line (NDJSON). Columns are the field paths in dot notation, with {@code []} for arrays.
+ */
+public final class JsonRecordsReader implements FormatReader {
+    private static final Set<String> EXTENSIONS = Set.of("json", "ndjson", "jsonl", "geojson");
+    private static final ObjectMapper MAPPER = new ObjectMapper();
+    private static final int MAX_RECORDS = 5000;
+
+    @Override
+    public boolean accepts(Sample sample) {
+        return EXTENSIONS.contains(sample.extension());
+    }
+
+    @Override
+    public Reading read(Sample sample) throws UnreadableFileException {
+        String text = TextDecoding.decode(sample.head(), sample.complete()).text().strip();
+        boolean lines = sample.extension().equals("ndjson") || sample.extension().equals("jsonl");
+        Collected collected = new Collected();
+        String recordsPath = null;
+        try {
+            if (lines || looksLikeLines(text)) {
+                readLines(text, sample.complete(), collected);
+                return reading("ndjson", collected, sample, null);
+            }
+            try (JsonParser parser = MAPPER.getFactory().createParser(text)) {
+                JsonToken first = parser.nextToken();
+                if (first == JsonToken.START_ARRAY) {
+                    readArray(parser, collected);
+                } else if (first == JsonToken.START_OBJECT) {
+                    recordsPath = readObject(parser, collected);
+                } else {
+                    throw new UnreadableFileException("invalid", "The file does not start with a JSON object or array");
+                }
+            }
+        } catch (IOException e) {
+            if (sample.complete() || collected.records == 0) {
+                throw new UnreadableFileException(sample.complete() ? "invalid" : "truncated",
+                        "Invalid JSON: " + (e instanceof com.fasterxml.jackson.core.JsonProcessingException j ? j.getOriginalMessage() + " at line " + j.getLocation().getLineNr() : e.getMessage()));
+            }
+            // A cut sample ends mid-record: what was read before the cut still counts.
+        }
+        Map<String, Object> extra = new LinkedHashMap<>();
+        if (recordsPath != null) {
+            extra.put("records_path", recordsPath);
+        }
+        return reading("json", collected, sample, extra);
+    }
+
+    private static boolean looksLikeLines(String text) {
+        int nl = text.indexOf('\n');
+        return text.startsWith("{") && nl > 0 && text.substring(0, nl).strip().endsWith("}")
+                && text.substring(nl).strip().startsWith("{");
+    }
+
+    private static void readLines(String text, boolean complete, Collected collected) throws UnreadableFileException {
+        String[] lines = text.split("\r?\n");
+        for (int i = 0; i < lines.length && collected.records < MAX_RECORDS; i++) {
+            String line = lines[i].strip();
+            if (line.isEmpty()) {
+                continue;
+            }
+            try {
+                collected.add(MAPPER.readTree(line));
+            } catch (IOException e) {
+                boolean lastOfCutSample = !complete && i == lines.length - 1;
+                if (!lastOfCutSample) {
+                    throw new UnreadableFileException("invalid", "Line " + (i + 1) + " is not valid JSON");
+                }
+            }
+        }
+    }
+
+    private static void readArray(JsonParser parser, Collected collected) throws IOException {
+        while (parser.nextToken() == JsonToken.START_OBJECT && collected.records < MAX_RECORDS) {
+            collected.add(parser.readValueAsTree());
+        }
+    }
+
+    /** Reads a top-level object; when one of its fields is an array of objects, those are the records. */
+    private static String readObject(JsonParser parser, Collected collected) throws IOException {
+        while (parser.nextToken() == JsonToken.FIELD_NAME) {
+            String name = parser.currentName();
+            JsonToken value = parser.nextToken();
+            if (value == JsonToken.START_ARRAY) {
+                JsonToken next = parser.nextToken();
+                if (next == JsonToken.START_OBJECT) {
+                    collected.add(parser.readValueAsTree());
+                    readArray(parser, collected);
+                    return name;
+                }
+                if (next != JsonToken.END_ARRAY) {
+                    parser.skipChildren();
+                    while (parser.nextToken() != JsonToken.END_ARRAY) {
+                        parser.skipChildren();
+                    }
+                }
+            } else {
+                parser.skipChildren();
+            }
+        }
+        return null;
+    }
+
+    private static Reading reading(String format, Collected collected, Sample sample, Map<String, Object> extra) {
+        List<ColumnDef> columns = new ArrayList<>();
+        Map<String, Object> details = new LinkedHashMap<>();
+        List<Map<String, Object>> fields = new ArrayList<>();
+        for (Map.Entry<String, Set<String>> e : collected.types.entrySet()) {
+            Set<String> types = e.getValue();
+            boolean nullable = types.contains("null") || collected.seen.get(e.getKey()) < collected.records;
+            Set<String> present = new TreeSet<>(types);
+            present.remove("null");
+            String type = present.size() == 1 ? present.iterator().next() : present.isEmpty() ? "text" : "mixed";
+            columns.add(new ColumnDef(e.getKey(), type, nullable));
+            fields.add(Map.of("path", e.getKey(), "types", List.copyOf(types)));
+        }
+        details.put("fields", fields);
+        if (extra != null) {
+            details.putAll(extra);
+        }
+        boolean exact = sample.complete() && collected.records < MAX_RECORDS;
+        long count = exact ? collected.records
+                : Math.max(collected.records, Math.round((double) sample.size() / Math.max(1, sample.head().length) * collected.records));
+        return new Reading(format, DatasetKind.FILE, columns, count, exact, details);
+    }
+
+    /** Field paths and their JSON types across the records read so far. */
+    private static final class Collected {
+        final Map<String, Set<String>> types = new LinkedHashMap<>();
+        final Map<String, Integer> seen = new LinkedHashMap<>();
+        int records;
+
+        void add(JsonNode record) {
+            records++;
+            Set<String> inThisRecord = new TreeSet<>();
+            walk("", record, inThisRecord);
+            for (String path : inThisRecord) {
+                seen.merge(path, 1, Integer::sum);
+            }
+        }
+
+        private void walk(String prefix, JsonNode node, Set<String> inThisRecord) {
+            if (node.isObject()) {
+                Iterator<Map.Entry<String, JsonNode>> it = node.fields();
+                while (it.hasNext()) {
+                    Map.Entry<String, JsonNode> f = it.next();
+                    walk(prefix.isEmpty() ? f.getKey() : prefix + "." + f.getKey(), f.getValue(), inThisRecord);
+                }
+                return;
+            }
+            if (node.isArray()) {
+                String path = prefix + "[]";
+                if (node.isEmpty()) {
+                    note(path, "null", inThisRecord);
+                }
+                for (JsonNode element : node) {
+                    walk(path, element, inThisRecord);
+                }
+                return;
+            }
+            note(prefix.isEmpty() ? "value" : prefix, typeOf(node), inThisRecord);
+        }
+
+        private void note(String path, String type, Set<String> inThisRecord) {
+            types.computeIfAbsent(path, k -> new TreeSet<>()).add(type);
+            inThisRecord.add(path);
+        }
+
+        private static String typeOf(JsonNode node) {
+            if (node.isNull()) {
+                return "null";
+            }
+            if (node.isBoolean()) {
+                return "boolean";
+            }
+            if (node.isIntegralNumber()) {
+                return "integer";
+            }
+            if (node.isNumber()) {
+                return "decimal";
+            }
+            String guessed = ValueTypes.guess(List.of(node.asText()));
+            // Inside JSON a quoted "12" is still a string; only dates and times are read out of strings.
+            return guessed.equals("date") || guessed.equals("timestamp") ? guessed : "text";
+        }
+    }
+
+}

@@ -1,0 +1,33 @@
+package org.headwater.http;
+
+/** A request the API refuses, with the status to answer and a message for the caller. */
+public final class ApiError extends RuntimeException {
+    private final int status;
+    private final String code;
+
+    private ApiError(int status, String code, String message) {
+        super(message);
+        this.status = status;
+        this.code = code;
+    }
+
+    public static ApiError badRequest(String message) {
+        return new ApiError(400, "bad_request", message);
+    }
+
+    public static ApiError notFound(String message) {
+        return new ApiError(404, "not_found", message);
+    }
+
+    public int status() {
+        return status;
+    }
+
+    public String code() {
+        return code;
+    }
+
+    /** The JSON body of an error answer. */
+    public record Body(String error, String message) {
+    }
+}

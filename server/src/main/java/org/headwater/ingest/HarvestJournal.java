@@ -1,0 +1,73 @@
+package org.headwater.ingest;
+
+import static org.headwater.store.schema.Tables.HARVEST;
+import static org.headwater.store.schema.Tables.HARVEST_ERROR;
+
+import java.time.Clock;
+import java.time.OffsetDateTime;
+import java.time.ZoneOffset;
+import org.headwater.store.Store;
+
+/**
+ * Keeps the record of each harvest: when it ran, what it counted, what it could not read. These rows
+ * describe the harvesting, not the catalog's content, so they are written directly rather than as
+ * observations; a harvest that dies leaves a row in state {@code running}, which says so honestly.
+ */
+public final class HarvestJournal {
+    /** Harvest outcomes as stored. */
+    public static final String RUNNING = "running";
+    public static final String OK = "ok";
+    public static final String WITH_ERRORS = "with_errors";
+    public static final String FAILED = "failed";
+
+    private final Store store;
+    private final Clock clock;
+
+    public HarvestJournal(Store store, Clock clock) {
+        this.store = store;
+        this.clock = clock;
+    }
+
+    public long start(long sourceId) {
+        return store.dsl().insertInto(HARVEST)
+                .set(HARVEST.SOURCE_ID, sourceId)
+                .set(HARVEST.STARTED_AT, now())
+                .set(HARVEST.STATUS, RUNNING)
+                .returningResult(HARVEST.ID)
+                .fetchOne(HARVEST.ID);
+    }
+
+    public void error(long harvestId, String uri, String kind, String message) {
+        store.dsl().insertInto(HARVEST_ERROR)
+                .set(HARVEST_ERROR.HARVEST_ID, harvestId)
+                .set(HARVEST_ERROR.URI, Tx.truncate(uri, 2000))
+                .set(HARVEST_ERROR.KIND, kind)
+                .set(HARVEST_ERROR.MESSAGE, Tx.truncate(message == null ? kind : message, 4000))
+                .execute();
+    }
+
+    /** Counts one harvest reports when it ends. */
+    public record Counts(int filesSeen, int filesUnchanged, int filesIgnored, int datasets, int scripts, int changes, int removed,
+            int errors) {
+    }
+
+    public void finish(long harvestId, String status, Counts counts) {
+        store.dsl().update(HARVEST)
+                .set(HARVEST.FINISHED_AT, now())
+                .set(HARVEST.STATUS, status)
+                .set(HARVEST.FILES_SEEN, counts.filesSeen())
+                .set(HARVEST.FILES_UNCHANGED, counts.filesUnchanged())
+                .set(HARVEST.FILES_IGNORED, counts.filesIgnored())
+                .set(HARVEST.DATASETS_SEEN, counts.datasets())
+                .set(HARVEST.SCRIPTS_SEEN, counts.scripts())
+                .set(HARVEST.CHANGES, counts.changes())
+                .set(HARVEST.REMOVED, counts.removed())
+                .set(HARVEST.ERRORS, counts.errors())
+                .where(HARVEST.ID.eq(harvestId))
+                .execute();
+    }
+
+    private OffsetDateTime now() {
+        return OffsetDateTime.ofInstant(clock.instant(), ZoneOffset.UTC);
+    }
+}

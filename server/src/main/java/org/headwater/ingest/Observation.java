@@ -1,0 +1,128 @@
+package org.headwater.ingest;
+
+import java.time.Instant;
+import java.util.List;
+import java.util.Objects;
+import java.util.Set;
+import org.headwater.model.ColumnDef;
+import org.headwater.model.DatasetKind;
+import org.headwater.model.Evidence;
+import org.headwater.model.Language;
+
+/**
+ * One thing a source saw. Observations state facts, not commands: applying the same one twice leaves
+ * the catalog as applying it once did.
+ */
+public sealed interface Observation {
+
+    /**
+     * A dataset exists and looks like this now.
+     *
+     * @param columns the column structure, or {@code null} when the dataset has none (a figure) or it
+     *     could not be read (then {@code error} says why)
+     * @param details format-specific facts as a canonical JSON object text, or {@code null}
+     */
+    record DatasetSeen(String uri, String name, DatasetKind kind, Long sourceId, String format,
+            Long sizeBytes, Instant modifiedAt, String contentHash, Long rowCount, boolean rowCountExact,
+            String details, String error, List<ColumnDef> columns) implements Observation {
+        public DatasetSeen {
+            Objects.requireNonNull(uri, "uri");
+            Objects.requireNonNull(name, "name");
+            Objects.requireNonNull(kind, "kind");
+            Objects.requireNonNull(format, "format");
+            columns = columns == null ? null : List.copyOf(columns);
+        }
+    }
+
+    /** A dataset that was seen before is no longer there; its history stays. */
+    record DatasetGone(String uri) implements Observation {
+        public DatasetGone {
+            Objects.requireNonNull(uri, "uri");
+        }
+    }
+
+    /** A script exists and this is its current version. */
+    record ScriptSeen(String uri, String name, Language language, Long sourceId, Long sizeBytes,
+            Instant modifiedAt, String contentHash, String gitCommit) implements Observation {
+        public ScriptSeen {
+            Objects.requireNonNull(uri, "uri");
+            Objects.requireNonNull(name, "name");
+            Objects.requireNonNull(language, "language");
+        }
+    }
+
+    /** A script that was seen before is no longer there. */
+    record ScriptGone(String uri) implements Observation {
+        public ScriptGone {
+            Objects.requireNonNull(uri, "uri");
+        }
+    }
+
+    /**
+     * Data flows from one dataset to another, through a script (and maybe a particular run).
+     * The edge is identified by (source, target, script, evidence); its other facts may change.
+     */
+    record EdgeSeen(String sourceUri, String targetUri, String scriptUri, String scriptHash, String runId,
+            Evidence evidence, double confidence, List<ColumnFlow> columns) implements Observation {
+        public EdgeSeen {
+            Objects.requireNonNull(sourceUri, "sourceUri");
+            Objects.requireNonNull(targetUri, "targetUri");
+            Objects.requireNonNull(evidence, "evidence");
+            if (!(confidence >= 0.0 && confidence <= 1.0)) {
+                throw new IllegalArgumentException("confidence must be within [0, 1]: " + confidence);
+            }
+            columns = columns == null ? List.of() : List.copyOf(columns);
+        }
+    }
+
+    /** An edge that was observed before no longer holds (for example the script stopped reading a file). */
+    record EdgeGone(String sourceUri, String targetUri, String scriptUri, Evidence evidence) implements Observation {
+        public EdgeGone {
+            Objects.requireNonNull(sourceUri, "sourceUri");
+            Objects.requireNonNull(targetUri, "targetUri");
+            Objects.requireNonNull(evidence, "evidence");
+        }
+    }
+
+    /**
+     * Column-level flow inside a dataset edge.
+     *
+     * @param targetColumn the column written, or {@code null} for an influencing column (filters, joins)
+     */
+    record ColumnFlow(String sourceColumn, String targetColumn, ColumnRole role) {
+        public ColumnFlow {
+            Objects.requireNonNull(sourceColumn, "sourceColumn");
+            Objects.requireNonNull(role, "role");
+        }
+    }
+
+    /** How a source column reaches a target column. */
+    enum ColumnRole { DIRECT, DERIVED, INFLUENCING }
+
+    /** What people wrote about a dataset: its description and tags, replacing the previous ones. */
+    record NoteSet(String uri, String description, Set<String> tags, String author) implements Observation {
+        public NoteSet {
+            Objects.requireNonNull(uri, "uri");
+            Objects.requireNonNull(author, "author");
+            tags = tags == null ? Set.of() : Set.copyOf(tags);
+        }
+    }
+
+    /** Someone owns a dataset, for a stated reason (a rule, a git history, a person's word). */
+    record OwnerAssigned(String uri, String owner, String ownerKind, String reason) implements Observation {
+        public OwnerAssigned {
+            Objects.requireNonNull(uri, "uri");
+            Objects.requireNonNull(owner, "owner");
+            Objects.requireNonNull(ownerKind, "ownerKind");
+            Objects.requireNonNull(reason, "reason");
+        }
+    }
+
+    /** An owner no longer owns a dataset. */
+    record OwnerRemoved(String uri, String owner) implements Observation {
+        public OwnerRemoved {
+            Objects.requireNonNull(uri, "uri");
+            Objects.requireNonNull(owner, "owner");
+        }
+    }
+}

@@ -1,0 +1,356 @@
+package org.headwater.store;
+
+import static org.headwater.store.Validity.instant;
+import static org.headwater.store.schema.Tables.CHANGE_LOG;
+import static org.headwater.store.schema.Tables.DATASET;
+import static org.headwater.store.schema.Tables.DATASET_NOTE;
+import static org.headwater.store.schema.Tables.DATASET_OWNER;
+import static org.headwater.store.schema.Tables.DATASET_STATE;
+import static org.headwater.store.schema.Tables.HARVEST;
+import static org.headwater.store.schema.Tables.HARVEST_ERROR;
+import static org.headwater.store.schema.Tables.LINEAGE_EDGE;
+import static org.headwater.store.schema.Tables.OWNER;
+import static org.headwater.store.schema.Tables.SCHEMA_COLUMN;
+import static org.headwater.store.schema.Tables.SCHEMA_VERSION;
+import static org.headwater.store.schema.Tables.SCRIPT;
+import static org.headwater.store.schema.Tables.SCRIPT_STATE;
+import static org.headwater.store.schema.Tables.SOURCE;
+
+import com.fasterxml.jackson.core.type.TypeReference;
+import com.fasterxml.jackson.databind.ObjectMapper;
+import java.io.IOException;
+import java.nio.file.Path;
+import java.time.Instant;
+import java.util.ArrayList;
+import java.util.Collection;
+import java.util.HashMap;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+import java.util.Optional;
+import org.headwater.store.Views.ColumnView;
+import org.headwater.store.Views.DatasetSummary;
+import org.headwater.store.Views.DatasetView;
+import org.headwater.store.Views.EdgeView;
+import org.headwater.store.Views.HarvestErrorView;
+import org.headwater.store.Views.HarvestView;
+import org.headwater.store.Views.IndexEntry;
+import org.headwater.store.Views.KnownFile;
+import org.headwater.store.Views.OwnerView;
+import org.headwater.store.Views.SchemaVersionView;
+import org.headwater.store.Views.ScriptView;
+import org.headwater.store.schema.tables.LineageEdge;
+import org.jooq.Condition;
+import org.jooq.DSLContext;
+import org.jooq.Record;
+import org.jooq.impl.DSL;
+
+/** Read-only questions to the store. Every method that takes {@code asOf} answers from history when it is set. */
+public final class CatalogReader {
+    private static final ObjectMapper JSON = new ObjectMapper();
+
+    private final DSLContext db;
+
+    public CatalogReader(Store store) {
+        this.db = store.dsl();
+    }
+
+    /** Number of datasets present now. */
+    public int datasetCount() {
+        return db.fetchCount(DATASET_STATE, DATASET_STATE.VALID_TO.isNull());
+    }
+
+    /** Datasets present at {@code asOf} (or now), by name, one page at a time. */
+    public List<DatasetSummary> datasets(String kind, int offset, int limit, Instant asOf) {
+        Condition condition = Validity.at(DATASET_STATE.VALID_FROM, DATASET_STATE.VALID_TO, asOf);
+        if (kind != null) {
+            condition = condition.and(DATASET.KIND.eq(kind));
+        }
+        var columnCount = DSL.field(DSL.selectCount().from(SCHEMA_COLUMN).join(SCHEMA_VERSION)
+                .on(SCHEMA_COLUMN.SCHEMA_VERSION_ID.eq(SCHEMA_VERSION.ID))
+                .where(SCHEMA_VERSION.DATASET_ID.eq(DATASET.ID),
+                        Validity.at(SCHEMA_VERSION.VALID_FROM, SCHEMA_VERSION.VALID_TO, asOf)));
+        return db.select(DATASET.ID, DATASET.URI, DATASET.NAME, DATASET.KIND, SOURCE.NAME, DATASET_STATE.FORMAT,
+                        DATASET_STATE.SIZE_BYTES, DATASET_STATE.MODIFIED_AT, columnCount)
+                .from(DATASET)
+                .join(DATASET_STATE).on(DATASET_STATE.DATASET_ID.eq(DATASET.ID))
+                .leftJoin(SOURCE).on(SOURCE.ID.eq(DATASET.SOURCE_ID))
+                .where(condition)
+                .orderBy(DATASET.NAME, DATASET.ID)
+                .offset(offset).limit(limit)
+                .fetch(r -> new DatasetSummary(r.value1(), r.value2(), r.value3(), r.value4(), r.value5(), r.value6(),
+                        r.value7(), instant(r.value8()), r.value9(), true));
+    }
+
+    /** Total datasets present, for paging. */
+    public int datasetTotal(String kind, Instant asOf) {
+        Condition condition = Validity.at(DATASET_STATE.VALID_FROM, DATASET_STATE.VALID_TO, asOf);
+        if (kind != null) {
+            condition = condition.and(DATASET.KIND.eq(kind));
+        }
+        return db.fetchCount(DSL.select(DATASET.ID).from(DATASET).join(DATASET_STATE)
+                .on(DATASET_STATE.DATASET_ID.eq(DATASET.ID)).where(condition));
+    }
+
+    /** One dataset as it is now, or as it was at {@code asOf}. */
+    public Optional<DatasetView> dataset(long id, Instant asOf) {
+        Record identity = db.select(DATASET.ID, DATASET.URI, DATASET.NAME, DATASET.KIND, DATASET.FIRST_SEEN, SOURCE.NAME)
+                .from(DATASET).leftJoin(SOURCE).on(SOURCE.ID.eq(DATASET.SOURCE_ID))
+                .where(DATASET.ID.eq(id)).fetchOne();
+        if (identity == null) {
+            return Optional.empty();
+        }
+        var state = db.selectFrom(DATASET_STATE)
+                .where(DATASET_STATE.DATASET_ID.eq(id), Validity.at(DATASET_STATE.VALID_FROM, DATASET_STATE.VALID_TO, asOf))
+                .fetchOne();
+        var note = db.selectFrom(DATASET_NOTE)
+                .where(DATASET_NOTE.DATASET_ID.eq(id), Validity.at(DATASET_NOTE.VALID_FROM, DATASET_NOTE.VALID_TO, asOf))
+                .fetchOne();
+        var schema = db.selectFrom(SCHEMA_VERSION)
+                .where(SCHEMA_VERSION.DATASET_ID.eq(id), Validity.at(SCHEMA_VERSION.VALID_FROM, SCHEMA_VERSION.VALID_TO, asOf))
+                .fetchOne();
+        List<ColumnView> columns = schema == null ? List.of() : columnsOf(schema.getId());
+        List<OwnerView> owners = db.select(OWNER.NAME, OWNER.KIND, DATASET_OWNER.REASON)
+                .from(DATASET_OWNER).join(OWNER).on(OWNER.ID.eq(DATASET_OWNER.OWNER_ID))
+                .where(DATASET_OWNER.DATASET_ID.eq(id),
+                        Validity.at(DATASET_OWNER.VALID_FROM, DATASET_OWNER.VALID_TO, asOf))
+                .orderBy(OWNER.NAME)
+                .fetch(r -> new OwnerView(r.value1(), r.value2(), r.value3()));
+        return Optional.of(new DatasetView(
+                id, identity.get(DATASET.URI), identity.get(DATASET.NAME), identity.get(DATASET.KIND),
+                identity.get(SOURCE.NAME), state != null, instant(identity.get(DATASET.FIRST_SEEN)),
+                state == null ? null : state.getFormat(),
+                state == null ? null : state.getSizeBytes(),
+                state == null ? null : instant(state.getModifiedAt()),
+                state == null ? null : state.getContentHash(),
+                state == null ? null : state.getRowCount(),
+                state != null && state.getRowCountExact(),
+                state == null ? null : state.getDetails(),
+                state == null ? null : state.getError(),
+                note == null ? null : note.getDescription(),
+                note == null ? List.of() : parseTags(note.getTags()),
+                owners,
+                schema == null ? null : schema.getVersion(),
+                columns,
+                edges(id, true, asOf),
+                edges(id, false, asOf)));
+    }
+
+    /** Every schema version a dataset has had, oldest first. */
+    public List<SchemaVersionView> schemaHistory(long datasetId) {
+        return db.selectFrom(SCHEMA_VERSION).where(SCHEMA_VERSION.DATASET_ID.eq(datasetId))
+                .orderBy(SCHEMA_VERSION.VERSION)
+                .fetch(v -> new SchemaVersionView(v.getVersion(), instant(v.getValidFrom()), instant(v.getValidTo()),
+                        columnsOf(v.getId())));
+    }
+
+    private List<ColumnView> columnsOf(long schemaVersionId) {
+        return db.selectFrom(SCHEMA_COLUMN).where(SCHEMA_COLUMN.SCHEMA_VERSION_ID.eq(schemaVersionId))
+                .orderBy(SCHEMA_COLUMN.ORDINAL)
+                .fetch(c -> new ColumnView(c.getOrdinal(), c.getName(), c.getDataType(), c.getNullable()));
+    }
+
+    private List<EdgeView> edges(long datasetId, boolean upstream, Instant asOf) {
+        LineageEdge e = LINEAGE_EDGE;
+        var here = upstream ? e.TARGET_DATASET_ID : e.SOURCE_DATASET_ID;
+        var there = upstream ? e.SOURCE_DATASET_ID : e.TARGET_DATASET_ID;
+        return db.select(e.ID, there, DATASET.NAME, SCRIPT.NAME, e.EVIDENCE, e.CONFIDENCE)
+                .from(e)
+                .join(DATASET).on(DATASET.ID.eq(there))
+                .leftJoin(SCRIPT).on(SCRIPT.ID.eq(e.SCRIPT_ID))
+                .where(here.eq(datasetId), Validity.at(e.VALID_FROM, e.VALID_TO, asOf))
+                .orderBy(DATASET.NAME, e.ID)
+                .fetch(r -> new EdgeView(r.value1(), r.value2(), r.value3(), r.value4(), r.value5(), r.value6()));
+    }
+
+    /**
+     * Datasets a person may mean by {@code key}: an exact URI, an exact name, a path on this machine, or
+     * (when nothing matches exactly) a unique end of a name. Datasets present now come first.
+     */
+    public List<DatasetSummary> findDatasets(String key) {
+        List<Long> ids = db.select(DATASET.ID).from(DATASET).where(DATASET.URI.eq(key).or(DATASET.NAME.eq(key))).fetch(DATASET.ID);
+        if (ids.isEmpty()) {
+            String asPath = pathUri(key);
+            if (asPath != null) {
+                ids = db.select(DATASET.ID).from(DATASET).where(DATASET.URI.eq(asPath)).fetch(DATASET.ID);
+            }
+        }
+        if (ids.isEmpty()) {
+            String suffix = key.startsWith("/") ? key : "/" + key;
+            ids = db.select(DATASET.ID).from(DATASET)
+                    .where(DATASET.NAME.endsWith(suffix).or(DATASET.URI.endsWith(suffix)))
+                    .limit(50).fetch(DATASET.ID);
+        }
+        return summaries(ids);
+    }
+
+    private static String pathUri(String key) {
+        try {
+            return Path.of(key).toAbsolutePath().normalize().toUri().toString();
+        } catch (RuntimeException e) {
+            return null;
+        }
+    }
+
+    private List<DatasetSummary> summaries(Collection<Long> ids) {
+        if (ids.isEmpty()) {
+            return List.of();
+        }
+        var columnCount = DSL.field(DSL.selectCount().from(SCHEMA_COLUMN).join(SCHEMA_VERSION)
+                .on(SCHEMA_COLUMN.SCHEMA_VERSION_ID.eq(SCHEMA_VERSION.ID))
+                .where(SCHEMA_VERSION.DATASET_ID.eq(DATASET.ID), SCHEMA_VERSION.VALID_TO.isNull()));
+        return db.select(DATASET.ID, DATASET.URI, DATASET.NAME, DATASET.KIND, SOURCE.NAME, DATASET_STATE.FORMAT,
+                        DATASET_STATE.SIZE_BYTES, DATASET_STATE.MODIFIED_AT, columnCount, DATASET_STATE.ID)
+                .from(DATASET)
+                .leftJoin(DATASET_STATE).on(DATASET_STATE.DATASET_ID.eq(DATASET.ID), DATASET_STATE.VALID_TO.isNull())
+                .leftJoin(SOURCE).on(SOURCE.ID.eq(DATASET.SOURCE_ID))
+                .where(DATASET.ID.in(ids))
+                .orderBy(DATASET_STATE.ID.isNull(), DATASET.NAME)
+                .fetch(r -> new DatasetSummary(r.value1(), r.value2(), r.value3(), r.value4(), r.value5(), r.value6(),
+                        r.value7(), instant(r.value8()), r.value9(), r.value10() != null));
+    }
+
+    /** Scripts present now, by name. */
+    public List<ScriptView> scripts(int offset, int limit) {
+        return scriptQuery(SCRIPT_STATE.VALID_TO.isNull(), offset, limit);
+    }
+
+    public Optional<ScriptView> script(long id) {
+        return scriptQuery(SCRIPT.ID.eq(id), 0, 1).stream().findFirst();
+    }
+
+    private List<ScriptView> scriptQuery(Condition condition, int offset, int limit) {
+        return db.select(SCRIPT.ID, SCRIPT.URI, SCRIPT.NAME, SCRIPT.LANGUAGE, SOURCE.NAME, SCRIPT_STATE.ID,
+                        SCRIPT_STATE.SIZE_BYTES, SCRIPT_STATE.MODIFIED_AT, SCRIPT_STATE.CONTENT_HASH, SCRIPT_STATE.GIT_COMMIT)
+                .from(SCRIPT)
+                .leftJoin(SCRIPT_STATE).on(SCRIPT_STATE.SCRIPT_ID.eq(SCRIPT.ID), SCRIPT_STATE.VALID_TO.isNull())
+                .leftJoin(SOURCE).on(SOURCE.ID.eq(SCRIPT.SOURCE_ID))
+                .where(condition)
+                .orderBy(SCRIPT.NAME, SCRIPT.ID)
+                .offset(offset).limit(limit)
+                .fetch(r -> new ScriptView(r.value1(), r.value2(), r.value3(), r.value4(), r.value5(), r.value6() != null,
+                        r.value7(), instant(r.value8()), r.value9(), r.value10()));
+    }
+
+    public int scriptCount() {
+        return db.fetchCount(SCRIPT_STATE, SCRIPT_STATE.VALID_TO.isNull());
+    }
+
+    /** Files of one source that are present now, keyed by URI, for incremental harvest. */
+    public Map<String, KnownFile> knownFiles(long sourceId) {
+        Map<String, KnownFile> known = new HashMap<>();
+        db.select(DATASET.URI, DATASET_STATE.SIZE_BYTES, DATASET_STATE.MODIFIED_AT)
+                .from(DATASET).join(DATASET_STATE).on(DATASET_STATE.DATASET_ID.eq(DATASET.ID))
+                .where(DATASET.SOURCE_ID.eq(sourceId), DATASET_STATE.VALID_TO.isNull())
+                .forEach(r -> known.put(r.value1(), new KnownFile(r.value1(), r.value2(), instant(r.value3()), false)));
+        db.select(SCRIPT.URI, SCRIPT_STATE.SIZE_BYTES, SCRIPT_STATE.MODIFIED_AT)
+                .from(SCRIPT).join(SCRIPT_STATE).on(SCRIPT_STATE.SCRIPT_ID.eq(SCRIPT.ID))
+                .where(SCRIPT.SOURCE_ID.eq(sourceId), SCRIPT_STATE.VALID_TO.isNull())
+                .forEach(r -> known.put(r.value1(), new KnownFile(r.value1(), r.value2(), instant(r.value3()), true)));
+        return known;
+    }
+
+    /** Search-index entries for datasets present now; absent ids are simply not returned. */
+    public List<IndexEntry> datasetEntries(Collection<Long> ids) {
+        if (ids.isEmpty()) {
+            return List.of();
+        }
+        Map<Long, List<String>> columns = new HashMap<>();
+        db.select(SCHEMA_VERSION.DATASET_ID, SCHEMA_COLUMN.NAME)
+                .from(SCHEMA_COLUMN).join(SCHEMA_VERSION).on(SCHEMA_COLUMN.SCHEMA_VERSION_ID.eq(SCHEMA_VERSION.ID))
+                .where(SCHEMA_VERSION.DATASET_ID.in(ids), SCHEMA_VERSION.VALID_TO.isNull())
+                .orderBy(SCHEMA_VERSION.DATASET_ID, SCHEMA_COLUMN.ORDINAL)
+                .forEach(r -> columns.computeIfAbsent(r.value1(), k -> new ArrayList<>()).add(r.value2()));
+        Map<Long, List<String>> owners = new HashMap<>();
+        db.select(DATASET_OWNER.DATASET_ID, OWNER.NAME)
+                .from(DATASET_OWNER).join(OWNER).on(OWNER.ID.eq(DATASET_OWNER.OWNER_ID))
+                .where(DATASET_OWNER.DATASET_ID.in(ids), DATASET_OWNER.VALID_TO.isNull())
+                .forEach(r -> owners.computeIfAbsent(r.value1(), k -> new ArrayList<>()).add(r.value2()));
+        Map<Long, IndexEntry> entries = new LinkedHashMap<>();
+        db.select(DATASET.ID, DATASET.URI, DATASET.NAME, DATASET.KIND, DATASET_STATE.FORMAT, SOURCE.NAME,
+                        DATASET_NOTE.DESCRIPTION, DATASET_NOTE.TAGS)
+                .from(DATASET)
+                .join(DATASET_STATE).on(DATASET_STATE.DATASET_ID.eq(DATASET.ID), DATASET_STATE.VALID_TO.isNull())
+                .leftJoin(SOURCE).on(SOURCE.ID.eq(DATASET.SOURCE_ID))
+                .leftJoin(DATASET_NOTE).on(DATASET_NOTE.DATASET_ID.eq(DATASET.ID), DATASET_NOTE.VALID_TO.isNull())
+                .where(DATASET.ID.in(ids))
+                .forEach(r -> entries.put(r.value1(), new IndexEntry(r.value4(), r.value1(), r.value2(), r.value3(),
+                        r.value5(), r.value6(), columns.getOrDefault(r.value1(), List.of()), r.value7(),
+                        r.value8() == null ? List.of() : parseTags(r.value8()), owners.getOrDefault(r.value1(), List.of()))));
+        return List.copyOf(entries.values());
+    }
+
+    /** Search-index entries for scripts present now. */
+    public List<IndexEntry> scriptEntries(Collection<Long> ids) {
+        if (ids.isEmpty()) {
+            return List.of();
+        }
+        return db.select(SCRIPT.ID, SCRIPT.URI, SCRIPT.NAME, SCRIPT.LANGUAGE, SOURCE.NAME)
+                .from(SCRIPT)
+                .join(SCRIPT_STATE).on(SCRIPT_STATE.SCRIPT_ID.eq(SCRIPT.ID), SCRIPT_STATE.VALID_TO.isNull())
+                .leftJoin(SOURCE).on(SOURCE.ID.eq(SCRIPT.SOURCE_ID))
+                .where(SCRIPT.ID.in(ids))
+                .fetch(r -> new IndexEntry("script", r.value1(), r.value2(), r.value3(), r.value4(), r.value5(),
+                        List.of(), null, List.of(), List.of()));
+    }
+
+    /** Ids of every dataset present now, for a full index rebuild. */
+    public List<Long> presentDatasetIds() {
+        return db.select(DATASET_STATE.DATASET_ID).from(DATASET_STATE).where(DATASET_STATE.VALID_TO.isNull())
+                .orderBy(DATASET_STATE.DATASET_ID).fetch(DATASET_STATE.DATASET_ID);
+    }
+
+    public List<Long> presentScriptIds() {
+        return db.select(SCRIPT_STATE.SCRIPT_ID).from(SCRIPT_STATE).where(SCRIPT_STATE.VALID_TO.isNull())
+                .orderBy(SCRIPT_STATE.SCRIPT_ID).fetch(SCRIPT_STATE.SCRIPT_ID);
+    }
+
+    /** The newest change-log sequence number, 0 for an empty catalog. */
+    public long lastChangeSeq() {
+        Long seq = db.select(DSL.max(CHANGE_LOG.SEQ)).from(CHANGE_LOG).fetchOne(0, Long.class);
+        return seq == null ? 0 : seq;
+    }
+
+    /** Number of change-log rows; history tests use it to prove that nothing was rewritten. */
+    public int changeLogSize() {
+        return db.fetchCount(CHANGE_LOG);
+    }
+
+    /** Entities changed after {@code seq}: (entity, id) pairs, oldest first, without repeats. */
+    public List<Map.Entry<String, Long>> changedSince(long seq) {
+        return db.selectDistinct(CHANGE_LOG.ENTITY, CHANGE_LOG.ENTITY_ID).from(CHANGE_LOG)
+                .where(CHANGE_LOG.SEQ.gt(seq))
+                .fetch(r -> Map.entry(r.value1(), r.value2()));
+    }
+
+    /** Recent harvests, newest first. */
+    public List<HarvestView> harvests(int limit) {
+        return db.select(HARVEST.asterisk(), SOURCE.NAME).from(HARVEST).join(SOURCE).on(SOURCE.ID.eq(HARVEST.SOURCE_ID))
+                .orderBy(HARVEST.ID.desc()).limit(limit)
+                .fetch(r -> harvestView(r, false));
+    }
+
+    public Optional<HarvestView> harvest(long id) {
+        return db.select(HARVEST.asterisk(), SOURCE.NAME).from(HARVEST).join(SOURCE).on(SOURCE.ID.eq(HARVEST.SOURCE_ID))
+                .where(HARVEST.ID.eq(id))
+                .fetchOptional(r -> harvestView(r, true));
+    }
+
+    private HarvestView harvestView(Record r, boolean withErrors) {
+        long id = r.get(HARVEST.ID);
+        List<HarvestErrorView> errors = !withErrors ? List.of() : db.selectFrom(HARVEST_ERROR)
+                .where(HARVEST_ERROR.HARVEST_ID.eq(id)).orderBy(HARVEST_ERROR.ID).limit(1000)
+                .fetch(e -> new HarvestErrorView(e.getUri(), e.getKind(), e.getMessage()));
+        return new HarvestView(id, r.get(SOURCE.NAME), instant(r.get(HARVEST.STARTED_AT)), instant(r.get(HARVEST.FINISHED_AT)),
+                r.get(HARVEST.STATUS), r.get(HARVEST.FILES_SEEN), r.get(HARVEST.FILES_UNCHANGED), r.get(HARVEST.FILES_IGNORED), r.get(HARVEST.DATASETS_SEEN),
+                r.get(HARVEST.SCRIPTS_SEEN), r.get(HARVEST.CHANGES), r.get(HARVEST.REMOVED), r.get(HARVEST.ERRORS), errors);
+    }
+
+    private static List<String> parseTags(String json) {
+        try {
+            return JSON.readValue(json, new TypeReference<List<String>>() { });
+        } catch (IOException e) {
+            throw new StoreException("A stored tag list is not valid JSON: " + json, e);
+        }
+    }
+}

@@ -1,0 +1,34 @@
+package org.headwater.store;
+
+import java.nio.file.Path;
+import java.util.Objects;
+
+/**
+ * Where the catalog database lives.
+ *
+ * @param jdbcUrl a JDBC URL: {@code jdbc:h2:…} for the embedded store, {@code jdbc:postgresql:…} for a team store
+ * @param user database user, may be empty
+ * @param password database password, may be empty; never logged
+ */
+public record StoreConfig(String jdbcUrl, String user, String password) {
+    public StoreConfig {
+        Objects.requireNonNull(jdbcUrl, "jdbcUrl");
+        user = user == null ? "" : user;
+        password = password == null ? "" : password;
+    }
+
+    /** The embedded H2 file database inside a catalog directory. */
+    public static StoreConfig embedded(Path dataDir) {
+        return new StoreConfig("jdbc:h2:file:" + dataDir.toAbsolutePath().resolve("catalog"), "sa", "");
+    }
+
+    /** A private in-memory H2 database, gone when closed; for tests and throwaway catalogs. */
+    public static StoreConfig inMemory(String name) {
+        return new StoreConfig("jdbc:h2:mem:" + name + ";DB_CLOSE_DELAY=-1", "sa", "");
+    }
+
+    @Override
+    public String toString() {
+        return "StoreConfig[" + jdbcUrl + ", user=" + user + "]";
+    }
+}

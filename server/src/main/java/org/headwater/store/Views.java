@@ -1,0 +1,65 @@
+package org.headwater.store;
+
+import com.fasterxml.jackson.annotation.JsonRawValue;
+import java.time.Instant;
+import java.util.List;
+
+/** Read-side shapes of catalog content, as the API, the CLI and the search index see them. */
+public final class Views {
+    private Views() {
+    }
+
+    /** A dataset in a list. {@code present} is false once the dataset is gone from its source. */
+    public record DatasetSummary(long id, String uri, String name, String kind, String source, String format,
+            Long sizeBytes, Instant modifiedAt, int columnCount, boolean present) {
+    }
+
+    /** One column of a dataset's current (or as-of) schema version. */
+    public record ColumnView(int ordinal, String name, String type, boolean nullable) {
+    }
+
+    /** One schema version of a dataset, for its history. */
+    public record SchemaVersionView(int version, Instant validFrom, Instant validTo, List<ColumnView> columns) {
+    }
+
+    /** An owner of a dataset, and the rule or evidence that says so. */
+    public record OwnerView(String name, String kind, String reason) {
+    }
+
+    /** A lineage edge as seen from one of its ends. */
+    public record EdgeView(long edgeId, long datasetId, String datasetName, String script, String evidence,
+            double confidence) {
+    }
+
+    /** Everything the catalog knows of one dataset at one time. */
+    public record DatasetView(long id, String uri, String name, String kind, String source, boolean present,
+            Instant firstSeen, String format, Long sizeBytes, Instant modifiedAt, String contentHash, Long rowCount,
+            boolean rowCountExact, @JsonRawValue String details, String error, String description, List<String> tags,
+            List<OwnerView> owners, Integer schemaVersion, List<ColumnView> columns, List<EdgeView> upstream,
+            List<EdgeView> downstream) {
+    }
+
+    /** A script, with its current version. */
+    public record ScriptView(long id, String uri, String name, String language, String source, boolean present,
+            Long sizeBytes, Instant modifiedAt, String contentHash, String gitCommit) {
+    }
+
+    /** A file the catalog already holds, with what incremental harvest compares. */
+    public record KnownFile(String uri, Long sizeBytes, Instant modifiedAt, boolean script) {
+    }
+
+    /** What the search index stores of a dataset or script. */
+    public record IndexEntry(String kind, long id, String uri, String name, String format, String source,
+            List<String> columns, String description, List<String> tags, List<String> owners) {
+    }
+
+    /** One harvest, with its counts and the first of its errors. */
+    public record HarvestView(long id, String source, Instant startedAt, Instant finishedAt, String status,
+            int filesSeen, int filesUnchanged, int filesIgnored, int datasets, int scripts, int changes, int removed, int errors,
+            List<HarvestErrorView> errorList) {
+    }
+
+    /** A file a harvest could not read, and why. */
+    public record HarvestErrorView(String uri, String kind, String message) {
+    }
+}
