@@ -87,7 +87,8 @@ public final class Catalog implements AutoCloseable {
         return index;
     }
 
-    Store store() {
+    /** The underlying store, for tools and tests that need to look below the reader. */
+    public Store store() {
         return store;
     }
 

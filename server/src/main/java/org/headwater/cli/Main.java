@@ -24,7 +24,12 @@ public final class Main implements Runnable {
 
     /** Runs a command line and returns its exit code; tests call this instead of {@link #main}. */
     public static int run(String... args) {
-        CommandLine cli = new CommandLine(new Main());
+        return run(new java.io.PrintWriter(System.out, true), new java.io.PrintWriter(System.err, true), args);
+    }
+
+    /** Runs a command line writing to the given streams. */
+    public static int run(java.io.PrintWriter out, java.io.PrintWriter err, String... args) {
+        CommandLine cli = new CommandLine(new Main()).setOut(out).setErr(err);
         cli.setExitCodeExceptionMapper(e -> e instanceof CommandLine.ParameterException ? USAGE : PROBLEMS);
         cli.setExecutionExceptionHandler((e, commandLine, parseResult) -> {
             commandLine.getErr().println("headwater: " + Problems.describe(e));

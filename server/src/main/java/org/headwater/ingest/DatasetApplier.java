@@ -123,7 +123,7 @@ final class DatasetApplier {
                 .where(SCHEMA_VERSION.DATASET_ID.eq(id), SCHEMA_VERSION.VALID_TO.isNull())
                 .fetchOne();
         String fingerprint = columns == null ? null : SchemaFingerprint.of(columns);
-        if (current != null && current.getFingerprint().equals(fingerprint)) {
+        if (current == null ? columns == null : current.getFingerprint().equals(fingerprint)) {
             return;
         }
         if (current != null) {

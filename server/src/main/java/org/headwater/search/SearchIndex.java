@@ -55,8 +55,7 @@ public final class SearchIndex implements ChangeListener, AutoCloseable {
             "name", 4.0f,
             "columns", 2.0f,
             "tags", 2.0f,
-            "description", 1.5f,
-            "path", 1.0f);
+            "description", 1.5f);
 
     private final Directory directory;
     private final IndexWriter writer;
@@ -221,7 +220,7 @@ public final class SearchIndex implements ChangeListener, AutoCloseable {
         doc.add(new TextField("name", entry.name(), Field.Store.YES));
         doc.add(new StringField("name_exact", exactForm(entry.name()), Field.Store.NO));
         doc.add(new StringField("name_exact", exactForm(baseName(entry.name())), Field.Store.NO));
-        doc.add(new TextField("path", entry.uri(), Field.Store.NO));
+        // The URI is stored but not searched: the folders above a workspace (home, work, …) are noise.
         doc.add(new TextField("columns", String.join("\n", entry.columns()), Field.Store.NO));
         if (entry.description() != null) {
             doc.add(new TextField("description", entry.description(), Field.Store.NO));

@@ -15,12 +15,38 @@ import org.headwater.model.DatasetKind;
  */
 public final class DelimitedTextReader implements FormatReader {
     private static final Set<String> EXTENSIONS = Set.of("csv", "tsv", "tab", "psv");
+    /** Endings that are sometimes tables and sometimes prose: accepted only when the lines look delimited. */
+    private static final Set<String> MAYBE_EXTENSIONS = Set.of("txt", "dat");
     private static final char[] DELIMITERS = {',', ';', '\t', '|'};
     private static final int MAX_SAMPLE_ROWS = 2000;
 
     @Override
     public boolean accepts(Sample sample) {
-        return EXTENSIONS.contains(sample.extension());
+        if (EXTENSIONS.contains(sample.extension())) {
+            return true;
+        }
+        return MAYBE_EXTENSIONS.contains(sample.extension()) && !TextDecoding.looksBinary(sample.head())
+                && looksDelimited(TextDecoding.decode(sample.head(), sample.complete()).text());
+    }
+
+    /** At least two lines, and one candidate delimiter occurring the same, non-zero number of times on each. */
+    static boolean looksDelimited(String text) {
+        List<String> lines = new ArrayList<>();
+        for (String line : text.split("\r\n|\n|\r", 22)) {
+            if (!line.isBlank() && lines.size() < 20) {
+                lines.add(line);
+            }
+        }
+        if (lines.size() < 2) {
+            return false;
+        }
+        for (char d : DELIMITERS) {
+            int first = countOutsideQuotes(lines.get(0), d);
+            if (first > 0 && lines.stream().allMatch(l -> countOutsideQuotes(l, d) == first)) {
+                return true;
+            }
+        }
+        return false;
     }
 
     @Override

@@ -1,0 +1,93 @@
+package org.headwater.cli;
+
+import static org.assertj.core.api.Assertions.assertThat;
+
+import com.fasterxml.jackson.databind.JsonNode;
+import com.fasterxml.jackson.databind.ObjectMapper;
+import java.io.PrintWriter;
+import java.io.StringWriter;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import org.headwater.testing.Workspaces;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+
+class CommandLineTest {
+    private static final ObjectMapper JSON = new ObjectMapper();
+
+    @TempDir
+    Path temp;
+
+    /** What one command printed and returned. */
+    record Ran(int exit, String out, String err) {
+    }
+
+    Ran run(String... args) {
+        StringWriter out = new StringWriter();
+        StringWriter err = new StringWriter();
+        int exit = Main.run(new PrintWriter(out, true), new PrintWriter(err, true), args);
+        return new Ran(exit, out.toString(), err.toString());
+    }
+
+    @Test
+    void harvestThenSearchFindsTheNitrateDatasetFirstAndARepeatChangesNothing() throws Exception {
+        String dataDir = temp.resolve("c").toString();
+        Ran first = run("harvest", Workspaces.demo().toString(), "--data-dir", dataDir, "--json");
+        Ran second = run("harvest", Workspaces.demo().toString(), "--data-dir", dataDir, "--json");
+        Ran search = run("search", "nitrate", "--data-dir", dataDir, "--json");
+
+        assertThat(first.exit()).isZero();
+        JsonNode a = JSON.readTree(first.out());
+        JsonNode b = JSON.readTree(second.out());
+        assertThat(a.get("datasets").asInt()).isEqualTo(22);
+        assertThat(b.get("datasets").asInt()).isEqualTo(22);
+        assertThat(b.get("scripts").asInt()).isEqualTo(a.get("scripts").asInt());
+        assertThat(b.get("changes").asInt()).isZero();
+        assertThat(search.exit()).isZero();
+        assertThat(JSON.readTree(search.out()).get(0).get("name").asText()).isEqualTo("lab/nitrate_results_2025.csv");
+    }
+
+    @Test
+    void showPrintsADatasetByItsShortNameAsJson() throws Exception {
+        String dataDir = temp.resolve("c").toString();
+        run("harvest", Workspaces.demo().toString(), "--data-dir", dataDir);
+        Ran show = run("show", "station_register.csv", "--data-dir", dataDir, "--json");
+        assertThat(show.exit()).isZero();
+        JsonNode d = JSON.readTree(show.out());
+        assertThat(d.get("name").asText()).isEqualTo("stations/station_register.csv");
+        assertThat(d.get("columns")).hasSize(6);
+    }
+
+    @Test
+    void exitCodesAreZeroOnSuccessOneForProblemsTwoForBadUsage() throws Exception {
+        String dataDir = temp.resolve("c").toString();
+        Path lake = Files.createDirectories(temp.resolve("lake"));
+        Files.writeString(lake.resolve("bad.json"), "{\"a\": [1, 2");
+
+        assertThat(run("--help").exit()).isZero();
+        assertThat(run("harvest", "--help").exit()).isZero();
+        assertThat(run("harvest", lake.toString(), "--data-dir", dataDir).exit()).isEqualTo(1);
+        assertThat(run("frobnicate").exit()).isEqualTo(2);
+        assertThat(run("harvest").exit()).isEqualTo(2);
+        Ran noFolder = run("harvest", temp.resolve("absent").toString(), "--data-dir", dataDir);
+        assertThat(noFolder.exit()).isEqualTo(2);
+        assertThat(noFolder.err()).contains("no such folder");
+        assertThat(run("show", "nothing-like-this", "--data-dir", dataDir).exit()).isEqualTo(2);
+        assertThat(run("search", "x", "--limit", "0", "--data-dir", dataDir).exit()).isEqualTo(2);
+    }
+
+    @Test
+    void reindexRebuildsTheIndexFromTheStore() throws Exception {
+        String dataDir = temp.resolve("c").toString();
+        run("harvest", Workspaces.demo().toString(), "--data-dir", dataDir);
+        Ran reindex = run("reindex", "--data-dir", dataDir, "--json");
+        assertThat(reindex.exit()).isZero();
+        assertThat(JSON.readTree(reindex.out()).get("documents").asInt()).isEqualTo(30);
+    }
+
+    @Test
+    void theProgressLineShowsABarOnceTheTotalIsKnown() {
+        assertThat(TerminalProgress.line(50, 200, 2.0)).startsWith("harvesting [########                      ]  25%  50/200 files  25 files/s");
+        assertThat(TerminalProgress.line(50, -1, 2.0)).startsWith("harvesting  50 files  25 files/s");
+    }
+}

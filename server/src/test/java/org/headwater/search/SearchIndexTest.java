@@ -1,0 +1,126 @@
+package org.headwater.search;
+
+import static org.assertj.core.api.Assertions.assertThat;
+
+import java.io.IOException;
+import java.io.StringReader;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.stream.Stream;
+import org.apache.lucene.analysis.TokenStream;
+import org.apache.lucene.analysis.tokenattributes.CharTermAttribute;
+import org.headwater.Catalog;
+import org.headwater.harvest.HarvestProgress;
+import org.headwater.testing.Workspaces;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+
+class SearchIndexTest {
+
+    @TempDir
+    Path temp;
+
+    static List<String> tokens(org.apache.lucene.analysis.Analyzer analyzer, String text) throws IOException {
+        List<String> out = new ArrayList<>();
+        try (TokenStream stream = analyzer.tokenStream("name", new StringReader(text))) {
+            CharTermAttribute term = stream.addAttribute(CharTermAttribute.class);
+            stream.reset();
+            while (stream.incrementToken()) {
+                out.add(term.toString());
+            }
+            stream.end();
+        }
+        return out;
+    }
+
+    @Test
+    void identifiersSplitOnSnakeCaseCamelCasePathsAndDigitsAndKeepTheWhole() throws IOException {
+        // common practice, no source: how data people name files and columns.
+        assertThat(tokens(IdentifierAnalyzer.forQueries(), "stations/monthlyReadings_2025.csv"))
+                .containsExactly("stations", "monthly", "readings", "2025", "csv");
+        assertThat(tokens(IdentifierAnalyzer.forIndexing(), "nitrate_mg_l"))
+                .containsExactlyInAnyOrder("nitrate_mg_l", "nitrate", "mg", "l");
+        assertThat(tokens(IdentifierAnalyzer.forQueries(), "Température")).containsExactly("temperature");
+    }
+
+    @Test
+    void findsTheNitrateDatasetFirstAndADatasetByAWordOfOneOfItsColumns() throws IOException {
+        try (Catalog catalog = Catalog.open(temp.resolve("catalog"))) {
+            catalog.harvestFolder(Workspaces.demo(), false, HarvestProgress.NONE);
+
+            assertThat(catalog.index().search("nitrate", null, 5).get(0).name()).isEqualTo("lab/nitrate_results_2025.csv");
+            // "sulfate" is only a word of the column sulfate_mg_l, in two files.
+            assertThat(catalog.index().search("sulfate", null, 10)).extracting(SearchHit::name)
+                    .containsExactlyInAnyOrder("lab/ion_chromatograph_2025.csv", "derived/lab_merged.csv");
+            assertThat(catalog.index().search("merge_lab_results", "script", 10)).extracting(SearchHit::name)
+                    .containsExactly("scripts/merge_lab_results.py");
+        }
+    }
+
+    @Test
+    void aMissingOrDamagedIndexIsRebuiltFromTheStoreAtOpen() throws IOException {
+        Path dataDir = temp.resolve("catalog");
+        int documents;
+        try (Catalog catalog = Catalog.open(dataDir)) {
+            catalog.harvestFolder(Workspaces.demo(), false, HarvestProgress.NONE);
+            documents = catalog.index().documentCount();
+        }
+        // Damage: overwrite every index file with junk, as a crash mid-write or a bad disk might.
+        try (Stream<Path> files = Files.list(dataDir.resolve("index"))) {
+            for (Path f : (Iterable<Path>) files::iterator) {
+                if (!f.getFileName().toString().equals("write.lock")) {
+                    Files.write(f, new byte[] {1, 2, 3});
+                }
+            }
+        }
+        try (Catalog catalog = Catalog.open(dataDir)) {
+            assertThat(catalog.index().documentCount()).isEqualTo(documents).isEqualTo(30);
+            assertThat(catalog.index().search("nitrate", null, 1).get(0).name()).isEqualTo("lab/nitrate_results_2025.csv");
+        }
+    }
+
+    @Test
+    void anIndexThatFellBehindTheStoreCatchesUpFromTheChangeLog() throws IOException {
+        Path lake = Files.createDirectories(temp.resolve("lake"));
+        Files.writeString(lake.resolve("first.csv"), "a\n1\n");
+        Path dataDir = temp.resolve("catalog");
+        Path staleIndex = temp.resolve("stale-index");
+        try (Catalog catalog = Catalog.open(dataDir)) {
+            catalog.harvestFolder(lake, false, HarvestProgress.NONE);
+        }
+        copyTree(dataDir.resolve("index"), staleIndex);
+        Files.writeString(lake.resolve("second_reservoir.csv"), "b\n2\n");
+        try (Catalog catalog = Catalog.open(dataDir)) {
+            catalog.harvestFolder(lake, false, HarvestProgress.NONE);
+        }
+        // Put back the index as it was before the second harvest: the store is ahead of it now.
+        deleteTree(dataDir.resolve("index"));
+        copyTree(staleIndex, dataDir.resolve("index"));
+        try (Catalog catalog = Catalog.open(dataDir)) {
+            assertThat(catalog.index().absorbedSeq()).isEqualTo(catalog.reader().lastChangeSeq());
+            assertThat(catalog.index().search("reservoir", null, 5)).extracting(SearchHit::name)
+                    .containsExactly("second_reservoir.csv");
+            assertThat(catalog.index().documentCount()).isEqualTo(2);
+        }
+    }
+
+    private static void copyTree(Path from, Path to) throws IOException {
+        Files.createDirectories(to);
+        try (Stream<Path> files = Files.list(from)) {
+            for (Path f : (Iterable<Path>) files::iterator) {
+                Files.copy(f, to.resolve(f.getFileName()));
+            }
+        }
+    }
+
+    private static void deleteTree(Path dir) throws IOException {
+        try (Stream<Path> files = Files.list(dir)) {
+            for (Path f : (Iterable<Path>) files::iterator) {
+                Files.delete(f);
+            }
+        }
+        Files.delete(dir);
+    }
+}
