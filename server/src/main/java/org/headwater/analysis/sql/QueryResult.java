@@ -1,5 +1,6 @@
 package org.headwater.analysis.sql;
 
+import java.util.ArrayList;
 import java.util.List;
 import java.util.Set;
 
@@ -25,7 +26,7 @@ record QueryResult(
         if (names.size() != columns.size() && openTable == null) {
             warnings.add(what + " names " + names.size() + " columns but its query has " + columns.size());
         }
-        List<RelColumn> renamed = new java.util.ArrayList<>();
+        List<RelColumn> renamed = new ArrayList<>();
         for (int i = 0; i < columns.size(); i++) {
             renamed.add(i < names.size() ? columns.get(i).renamed(names.get(i)) : columns.get(i));
         }

@@ -9,8 +9,12 @@ import java.util.Set;
  * Column-level lineage of a SQL script (ANSI, PostgreSQL or H2, as far as JSqlParser accepts it).
  * Statements are analysed in order, each seeing the tables and views the earlier ones created;
  * one that fails to parse yields an {@link StatementLineage.Kind#UNPARSED} record and the rest
- * of the script goes on. Routine bodies (CREATE FUNCTION, DO) are skipped. Thread-safe: it
- * keeps no state between calls.
+ * of the script goes on. Routine bodies (CREATE FUNCTION, DO) are skipped.
+ *
+ * <p>Origins name the relations the script does not itself define as views: views created
+ * earlier in the script are looked through, while tables (also those the script creates) and
+ * the views only the catalog knows, through {@link SchemaLookup}, end the trail; the catalog
+ * chains such edges itself. Thread-safe: it keeps no state between calls.
  */
 public final class SqlLineageAnalyzer {
 
