@@ -7,6 +7,7 @@ import java.util.List;
 import java.util.Optional;
 import java.util.Set;
 import net.sf.jsqlparser.expression.AnalyticExpression;
+import net.sf.jsqlparser.expression.AnalyticType;
 import net.sf.jsqlparser.expression.AnyComparisonExpression;
 import net.sf.jsqlparser.expression.Expression;
 import net.sf.jsqlparser.expression.ExpressionVisitorAdapter;
@@ -159,7 +160,11 @@ final class ExpressionLineage extends ExpressionVisitorAdapter<Void> {
         if (analytic.getPartitionExpressionList() != null) {
             analytic.getPartitionExpressionList().accept(rowChoice, null);
         }
-        visitOrderBy(rowChoice, analytic.getOrderByElements());
+        // In percentile_cont(0.5) WITHIN GROUP (ORDER BY x) the ordered column is the aggregate's input
+        // (SQL:2016 10.9 <aggregate function>, <ordered set function>); in OVER (ORDER BY x) it orders a window.
+        boolean withinGroup = analytic.getType() == AnalyticType.WITHIN_GROUP
+                || analytic.getType() == AnalyticType.WITHIN_GROUP_OVER;
+        visitOrderBy(withinGroup ? this : rowChoice, analytic.getOrderByElements());
         // FILTER picks the rows an aggregate reads; Calcite's column origins likewise leave an
         // aggregate's filter out of its origins (RelMdColumnOrigins reads AggregateCall.getArgList only).
         visitAll(rowChoice, analytic.getFilterExpression());

@@ -6,6 +6,7 @@ import net.sf.jsqlparser.expression.AnalyticExpression;
 import net.sf.jsqlparser.expression.CaseExpression;
 import net.sf.jsqlparser.expression.CastExpression;
 import net.sf.jsqlparser.expression.Expression;
+import net.sf.jsqlparser.expression.ExtractExpression;
 import net.sf.jsqlparser.expression.Function;
 import net.sf.jsqlparser.schema.Column;
 
@@ -13,7 +14,8 @@ import net.sf.jsqlparser.schema.Column;
  * The name of an output column that has no alias, as PostgreSQL chooses it (its SELECT manual:
  * "for simple column references, this is the name of the referenced column; for function
  * calls, this is the name of the function"; a cast takes its operand's name and CASE is
- * called {@code case}, from memory of its FigureColname), else {@code ?column?}.
+ * called {@code case}, EXTRACT {@code extract}, from memory of its FigureColname), else
+ * {@code ?column?}.
  */
 final class Naming {
 
@@ -39,6 +41,9 @@ final class Naming {
         }
         if (e instanceof CaseExpression) {
             return "case";
+        }
+        if (e instanceof ExtractExpression) {
+            return "extract"; // PostgreSQL 14 and later treat EXTRACT as a function of that name
         }
         return UNNAMED;
     }

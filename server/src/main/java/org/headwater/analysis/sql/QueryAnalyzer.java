@@ -10,6 +10,7 @@ import net.sf.jsqlparser.expression.Expression;
 import net.sf.jsqlparser.expression.LongValue;
 import net.sf.jsqlparser.expression.WindowDefinition;
 import net.sf.jsqlparser.expression.operators.relational.ExpressionList;
+import net.sf.jsqlparser.expression.operators.relational.ParenthesedExpressionList;
 import net.sf.jsqlparser.schema.Column;
 import net.sf.jsqlparser.statement.select.AllColumns;
 import net.sf.jsqlparser.statement.select.AllTableColumns;
@@ -196,8 +197,12 @@ final class QueryAnalyzer {
         Accumulator accumulator = new Accumulator();
         Scope scope = Scope.empty(context.outer());
         List<List<Expression>> rows = new ArrayList<>();
-        for (Expression row : expressions(values.getExpressions())) {
-            rows.add(row instanceof ExpressionList<?> list ? expressions(list) : List.of(row));
+        if (values.getExpressions() instanceof ParenthesedExpressionList<?> onlyRow) {
+            rows.add(expressions(onlyRow)); // VALUES (1, 2): the parser hands over the one row itself
+        } else {
+            for (Expression row : expressions(values.getExpressions())) {
+                rows.add(row instanceof ExpressionList<?> list ? expressions(list) : List.of(row));
+            }
         }
         int width = rows.isEmpty() ? 0 : rows.get(0).size();
         List<RelColumn> columns = new ArrayList<>();

@@ -374,4 +374,31 @@ class SelectLineageTest {
         assertThat(lineage.columns().get(1).origins()).containsExactly(direct("sales.orders", "id"));
         assertThat(lineage.sourceTables()).isEqualTo(Set.of(table("sales.orders")));
     }
+
+    @Test
+    void aSingleValuesRowHasOneColumnPerValue() {
+        StatementLineage lineage = single("values (1, 'x')", SHOP);
+
+        // expected names: PostgreSQL manual 7.7 "VALUES Lists" (column1, column2, ...)
+        assertThat(lineage.columns()).extracting(OutputColumn::name).containsExactly("column1", "column2");
+    }
+
+    @Test
+    void anOrderedSetAggregateReadsItsWithinGroupColumn() {
+        StatementLineage lineage = single(
+                "select percentile_cont(0.5) within group (order by salary) as median_salary from emp", SHOP);
+
+        // expected: the WITHIN GROUP sort key is the aggregated value (SQL:2016 10.9 <ordered set function>, from memory)
+        assertThat(lineage.column("median_salary").origins()).containsExactly(derived("emp", "salary"));
+        assertThat(lineage.influencing()).isEmpty();
+    }
+
+    @Test
+    void extractIsNamedLikeAFunction() {
+        StatementLineage lineage = single("select extract(year from placed_at) from orders", SHOP);
+
+        // expected name: PostgreSQL 14+ output column name "extract" (from memory)
+        assertThat(lineage.columns()).extracting(OutputColumn::name).containsExactly("extract");
+        assertThat(lineage.columns().get(0).origins()).containsExactly(derived("orders", "placed_at"));
+    }
 }
