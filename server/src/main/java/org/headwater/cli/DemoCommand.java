@@ -1,8 +1,12 @@
 package org.headwater.cli;
 
+import java.io.IOException;
+import java.io.UncheckedIOException;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.concurrent.Callable;
+import java.util.concurrent.CompletableFuture;
+import java.util.concurrent.atomic.AtomicReference;
 import org.headwater.Catalog;
 import org.headwater.harvest.HarvestProgress;
 import org.headwater.harvest.HarvestSummary;
@@ -30,30 +34,24 @@ final class DemoCommand implements Callable<Integer> {
     @Override
     public Integer call() throws Exception {
         Path temp = Files.createTempDirectory("headwater-demo-");
-        Path workspace = DemoWorkspace.copyTo(temp.resolve("workspace"));
-        Catalog catalog = Catalog.open(temp.resolve("catalog"));
-        HarvestSummary summary;
-        try {
-            summary = catalog.harvestFolder(workspace, false, HarvestProgress.NONE);
-        } catch (Exception e) {
-            catalog.close();
-            DemoWorkspace.deleteTree(temp);
-            throw e;
-        }
-        ApiServer server;
-        try {
-            server = ApiServer.start(catalog, host, port);
-        } catch (RuntimeException e) {
-            catalog.close();
-            throw new Problems.UsageProblem("cannot listen on " + host + ":" + port + ": " + ServeCommand.rootMessage(e)
-                    + " (choose another with --port)");
-        }
-        var out = spec.commandLine().getOut();
-        out.printf("Demo workspace %s: %d datasets, %d scripts%n", workspace, summary.datasets(), summary.scripts());
-        out.println("Headwater demo is serving at " + server.url());
-        out.println("Try " + server.url() + "api/search?q=nitrate  (stop with Ctrl-C)");
-        out.flush();
-        ServeCommand.awaitShutdown(server, catalog, () -> DemoWorkspace.deleteTree(temp));
+        Path workspace = temp.resolve("workspace").resolve("quillwater-lab");
+        AtomicReference<HarvestSummary> summary = new AtomicReference<>();
+        CompletableFuture<Catalog> opening = CompletableFuture.supplyAsync(() -> {
+            Catalog catalog = Catalog.open(temp.resolve("catalog"));
+            try {
+                DemoWorkspace.copyTo(workspace.getParent());
+                summary.set(catalog.harvestFolder(workspace, false, HarvestProgress.NONE));
+                return catalog;
+            } catch (IOException e) {
+                catalog.close();
+                throw new UncheckedIOException(e);
+            }
+        });
+        ServeCommand.serveUntilStopped(opening, host, port, spec.commandLine().getOut(), server ->
+                String.format("Demo workspace %s: %d datasets, %d scripts%n"
+                                + "Headwater demo is serving at %s%nTry %sapi/search?q=nitrate  (stop with Ctrl-C)",
+                        workspace, summary.get().datasets(), summary.get().scripts(), server.url(), server.url()),
+                () -> DemoWorkspace.deleteTree(temp));
         return Main.OK;
     }
 }

@@ -18,6 +18,12 @@ public final class Main implements Runnable {
     @CommandLine.Spec
     CommandLine.Model.CommandSpec spec;
 
+    static {
+        // jOOQ prints a logo and tips at first use; in a command-line tool that is noise and start-up time.
+        System.setProperty("org.jooq.no-logo", "true");
+        System.setProperty("org.jooq.no-tips", "true");
+    }
+
     public static void main(String[] args) {
         System.exit(run(args));
     }

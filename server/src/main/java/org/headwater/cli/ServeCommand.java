@@ -1,7 +1,11 @@
 package org.headwater.cli;
 
+import java.io.PrintWriter;
 import java.util.concurrent.Callable;
+import java.util.concurrent.CompletableFuture;
+import java.util.concurrent.CompletionException;
 import java.util.concurrent.CountDownLatch;
+import java.util.function.Function;
 import org.headwater.Catalog;
 import org.headwater.http.ApiServer;
 import picocli.CommandLine.Command;
@@ -30,26 +34,44 @@ final class ServeCommand implements Callable<Integer> {
 
     @Override
     public Integer call() throws InterruptedException {
-        Catalog open = catalog.open();
-        ApiServer server;
-        try {
-            server = ApiServer.start(open, host, port);
-        } catch (RuntimeException e) {
-            open.close();
-            throw new Problems.UsageProblem("cannot listen on " + host + ":" + port + ": " + rootMessage(e));
-        }
-        var out = spec.commandLine().getOut();
-        out.println("Headwater is serving " + open.dataDir() + " at " + server.url());
-        out.flush();
-        awaitShutdown(server, open, () -> { });
+        // The store opens while the HTTP server starts: the two are the bulk of start-up time.
+        serveUntilStopped(CompletableFuture.supplyAsync(catalog::open), host, port, spec.commandLine().getOut(),
+                server -> "Headwater is serving " + catalog.dataDir.toAbsolutePath().normalize() + " at " + server.url(),
+                () -> { });
         return Main.OK;
     }
 
     /**
-     * Blocks until the process is asked to stop, then closes the server, then the catalog, then runs
-     * {@code afterClose}; one hook does all three because the JVM runs separate hooks in no set order.
+     * Starts the HTTP server on a catalog that may still be opening, prints the greeting once both are
+     * ready, and serves until the process is asked to stop. Then it closes the server, then the catalog,
+     * then runs {@code afterClose}: one shutdown hook does all three, because the JVM runs separate hooks
+     * in no set order.
      */
-    static void awaitShutdown(ApiServer server, Catalog catalog, Runnable afterClose) throws InterruptedException {
+    static void serveUntilStopped(CompletableFuture<Catalog> opening, String host, int port, PrintWriter out,
+            Function<ApiServer, String> greeting, Runnable afterClose) throws InterruptedException {
+        ApiServer server;
+        try {
+            server = ApiServer.start(opening, host, port);
+        } catch (RuntimeException e) {
+            opening.whenComplete((c, failure) -> {
+                if (c != null) {
+                    c.close();
+                }
+                afterClose.run();
+            });
+            throw new Problems.UsageProblem("cannot listen on " + host + ":" + port + ": " + rootMessage(e)
+                    + " (choose another with --port)");
+        }
+        Catalog catalog;
+        try {
+            catalog = opening.join();
+        } catch (CompletionException e) {
+            server.close();
+            afterClose.run();
+            throw e.getCause() instanceof RuntimeException r ? r : e;
+        }
+        out.println(greeting.apply(server));
+        out.flush();
         CountDownLatch stopped = new CountDownLatch(1);
         Runtime.getRuntime().addShutdownHook(new Thread(() -> {
             try {

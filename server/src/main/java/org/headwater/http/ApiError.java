@@ -19,6 +19,10 @@ public final class ApiError extends RuntimeException {
         return new ApiError(404, "not_found", message);
     }
 
+    public static ApiError unavailable(String message) {
+        return new ApiError(503, "unavailable", message);
+    }
+
     public int status() {
         return status;
     }

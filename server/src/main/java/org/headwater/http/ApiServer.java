@@ -2,6 +2,7 @@ package org.headwater.http;
 
 import com.fasterxml.jackson.databind.ObjectMapper;
 import io.javalin.Javalin;
+import java.util.concurrent.CompletableFuture;
 import io.javalin.http.HttpStatus;
 import io.javalin.http.staticfiles.Location;
 import io.javalin.json.JavalinJackson;
@@ -27,6 +28,15 @@ public final class ApiServer implements AutoCloseable {
 
     /** Starts serving {@code catalog} on {@code host:port}; port 0 picks a free port. */
     public static ApiServer start(Catalog catalog, String host, int port) {
+        return start(CompletableFuture.completedFuture(catalog), host, port);
+    }
+
+    /**
+     * Starts serving a catalog that may still be opening; until it is ready, {@code /api/health} answers
+     * 503 with status {@code starting} and other endpoints answer 503.
+     */
+    public static ApiServer start(CompletableFuture<Catalog> opening, String host, int port) {
+        CatalogHolder catalog = new CatalogHolder(opening);
         ObjectMapper mapper = ApiJson.mapper();
         var datasets = new DatasetRoutes(catalog);
         var search = new SearchRoutes(catalog);
@@ -42,9 +52,16 @@ public final class ApiServer implements AutoCloseable {
                 files.directory = "/headwater-web";
                 files.location = Location.CLASSPATH;
             });
-            config.routes.get("/api/health", ctx -> ctx.json(new Health("ok", Version.current(),
-                    catalog.reader().datasetCount(), catalog.reader().scriptCount(),
-                    System.currentTimeMillis() - startedAt)));
+            config.routes.get("/api/health", ctx -> {
+                if (!catalog.ready()) {
+                    ctx.status(HttpStatus.SERVICE_UNAVAILABLE)
+                            .json(new Health("starting", Version.current(), 0, 0, System.currentTimeMillis() - startedAt));
+                    return;
+                }
+                var reader = catalog.get().reader();
+                ctx.json(new Health("ok", Version.current(), reader.datasetCount(), reader.scriptCount(),
+                        System.currentTimeMillis() - startedAt));
+            });
             config.routes.get("/api/datasets", datasets::list);
             config.routes.get("/api/datasets/{id}", datasets::one);
             config.routes.get("/api/datasets/{id}/schema-history", datasets::schemaHistory);

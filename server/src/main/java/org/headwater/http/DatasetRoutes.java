@@ -4,16 +4,15 @@ import com.fasterxml.jackson.databind.JsonNode;
 import io.javalin.http.Context;
 import java.util.List;
 import java.util.Set;
-import org.headwater.Catalog;
 import org.headwater.ingest.Observation;
 import org.headwater.store.Views.DatasetSummary;
 import org.headwater.store.Views.DatasetView;
 
 /** {@code /api/datasets}: lists, single datasets with their columns, schema history, and notes. */
 final class DatasetRoutes {
-    private final Catalog catalog;
+    private final CatalogHolder catalog;
 
-    DatasetRoutes(Catalog catalog) {
+    DatasetRoutes(CatalogHolder catalog) {
         this.catalog = catalog;
     }
 
@@ -24,7 +23,7 @@ final class DatasetRoutes {
     void list(Context ctx) {
         String match = Params.optional(ctx, "match");
         if (match != null) {
-            List<DatasetSummary> found = catalog.reader().findDatasets(match);
+            List<DatasetSummary> found = catalog.get().reader().findDatasets(match);
             ctx.json(new Page(found.size(), 0, found.size(), found));
             return;
         }
@@ -32,8 +31,8 @@ final class DatasetRoutes {
         int offset = Params.intParam(ctx, "offset", 0, 0, Integer.MAX_VALUE);
         int limit = Params.intParam(ctx, "limit", 100, 1, 1000);
         var asOf = Params.asOf(ctx);
-        ctx.json(new Page(catalog.reader().datasetTotal(kind, asOf), offset, limit,
-                catalog.reader().datasets(kind, offset, limit, asOf)));
+        ctx.json(new Page(catalog.get().reader().datasetTotal(kind, asOf), offset, limit,
+                catalog.get().reader().datasets(kind, offset, limit, asOf)));
     }
 
     void one(Context ctx) {
@@ -42,7 +41,7 @@ final class DatasetRoutes {
 
     void schemaHistory(Context ctx) {
         DatasetView dataset = find(ctx);
-        ctx.json(catalog.reader().schemaHistory(dataset.id()));
+        ctx.json(catalog.get().reader().schemaHistory(dataset.id()));
     }
 
     /** Replaces the description and tags; the author is recorded with the change. */
@@ -66,13 +65,13 @@ final class DatasetRoutes {
             body.get("tags").forEach(t -> tags.add(t.asText().trim()));
         }
         String author = body.hasNonNull("author") ? body.get("author").asText() : "api";
-        catalog.ingestor().apply("api", List.of(new Observation.NoteSet(dataset.uri(), description, tags, author)));
-        ctx.json(catalog.reader().dataset(dataset.id(), null).orElseThrow());
+        catalog.get().ingestor().apply("api", List.of(new Observation.NoteSet(dataset.uri(), description, tags, author)));
+        ctx.json(catalog.get().reader().dataset(dataset.id(), null).orElseThrow());
     }
 
     private DatasetView find(Context ctx) {
         long id = Params.pathId(ctx, "id");
-        return catalog.reader().dataset(id, Params.asOf(ctx))
+        return catalog.get().reader().dataset(id, Params.asOf(ctx))
                 .orElseThrow(() -> ApiError.notFound("No dataset with id " + id));
     }
 }

@@ -2,14 +2,13 @@ package org.headwater.http;
 
 import io.javalin.http.Context;
 import java.util.List;
-import org.headwater.Catalog;
 import org.headwater.search.SearchHit;
 
 /** {@code /api/search}: words in, ranked datasets and scripts out. */
 final class SearchRoutes {
-    private final Catalog catalog;
+    private final CatalogHolder catalog;
 
-    SearchRoutes(Catalog catalog) {
+    SearchRoutes(CatalogHolder catalog) {
         this.catalog = catalog;
     }
 
@@ -26,6 +25,6 @@ final class SearchRoutes {
             throw ApiError.badRequest("The query is longer than 1000 characters");
         }
         int limit = Params.intParam(ctx, "limit", 20, 1, 200);
-        ctx.json(new Result(q, catalog.index().search(q, Params.optional(ctx, "kind"), limit)));
+        ctx.json(new Result(q, catalog.get().index().search(q, Params.optional(ctx, "kind"), limit)));
     }
 }
