@@ -42,7 +42,9 @@ class StoreTest {
             List<String> names = store.dsl().select(org.headwater.store.schema.Tables.OWNER.NAME)
                     .from(org.headwater.store.schema.Tables.OWNER).fetch(0, String.class);
             assertThat(names).containsExactly("hydro-team");
-            int applied = store.dsl().fetchCount(org.jooq.impl.DSL.table("\"flyway_schema_history\""));
+            // Reopening must not apply migration 1 a second time.
+            int applied = store.dsl().fetchCount(org.jooq.impl.DSL.table("\"flyway_schema_history\""),
+                    org.jooq.impl.DSL.condition("\"version\" = '1'"));
             assertThat(applied).isEqualTo(1);
         }
     }
