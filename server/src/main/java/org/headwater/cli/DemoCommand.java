@@ -18,7 +18,7 @@ import picocli.CommandLine.Spec;
 /** {@code headwater demo}: harvests the invented demo workspace into a fresh temporary catalog and serves it. */
 @Command(name = "demo", mixinStandardHelpOptions = true,
         description = {"Copy the demo workspace (an invented river-basin monitoring lab) to a temporary folder,",
-                "harvest it into a fresh temporary catalog, and serve it. Everything is deleted at exit."})
+                "harvest it into a fresh temporary catalog, and serve it. Temporary folders are deleted at exit."})
 final class DemoCommand implements Callable<Integer> {
     @Option(names = "--host", paramLabel = "ADDRESS", defaultValue = ApiServer.DEFAULT_HOST,
             description = "Address to listen on (default ${DEFAULT-VALUE}).")
@@ -27,6 +27,10 @@ final class DemoCommand implements Callable<Integer> {
     @Option(names = "--port", paramLabel = "PORT", defaultValue = "" + ApiServer.DEFAULT_PORT,
             description = "Port to listen on (default ${DEFAULT-VALUE}; 0 picks a free one).")
     int port;
+
+    @Option(names = "--data-dir", paramLabel = "DIR",
+            description = "Keep the demo catalog in DIR instead of a temporary folder (it is then not deleted).")
+    Path dataDir;
 
     @Spec
     picocli.CommandLine.Model.CommandSpec spec;
@@ -37,7 +41,7 @@ final class DemoCommand implements Callable<Integer> {
         Path workspace = temp.resolve("workspace").resolve("quillwater-lab");
         AtomicReference<HarvestSummary> summary = new AtomicReference<>();
         CompletableFuture<Catalog> opening = CompletableFuture.supplyAsync(() -> {
-            Catalog catalog = Catalog.open(temp.resolve("catalog"));
+            Catalog catalog = Catalog.open(dataDir != null ? dataDir : temp.resolve("catalog"));
             try {
                 DemoWorkspace.copyTo(workspace.getParent());
                 summary.set(catalog.harvestFolder(workspace, false, HarvestProgress.NONE));
