@@ -6,6 +6,8 @@ import java.nio.file.Files;
 import java.nio.file.Path;
 import java.nio.file.attribute.BasicFileAttributes;
 import java.security.MessageDigest;
+import java.time.Instant;
+import java.util.Optional;
 import java.security.NoSuchAlgorithmException;
 import java.util.Arrays;
 import java.util.HexFormat;
@@ -13,14 +15,10 @@ import org.headwater.harvest.format.FormatRegistry;
 import org.headwater.harvest.format.Reading;
 import org.headwater.harvest.format.Sample;
 import org.headwater.harvest.format.UnreadableFileException;
-import org.headwater.ingest.Json;
-import org.headwater.ingest.Observation;
-import org.headwater.ingest.Observation.DatasetSeen;
-import org.headwater.ingest.Observation.ScriptSeen;
 import org.headwater.model.Language;
 
 /**
- * Looks at one file and says what it is, as an observation. Reads the file once: the first bytes are
+ * Looks at one file and says what it holds. Reads the file once: the first bytes are
  * kept for the format reader while the whole file (up to the hash cap) streams through SHA-256.
  * Has no state, so several threads may share one.
  */
@@ -35,43 +33,42 @@ final class FileInspector {
         this.sampleBytes = sampleBytes;
     }
 
-    /** What inspecting a file produced: its observation, and the problem found, if any. */
-    record Inspection(Observation observation, String errorKind, String errorMessage) {
+    /**
+     * What inspecting one file found: its physical facts, and either what its format reader read or why
+     * it could not be read. Scripts are not read by format readers.
+     *
+     * @param reading the format reader's result, or null for scripts and unreadable files
+     * @param errorKind a short word for the harvest summary when the file could not be read, else null
+     */
+    record Facts(Path file, long size, Instant modified, String sha256, Optional<Language> language, Reading reading,
+            String fallbackFormat, String errorKind, String errorMessage) {
     }
 
-    Inspection inspect(Path file, BasicFileAttributes attrs, String name, long sourceId) {
-        String uri = file.toUri().toString();
+    Facts inspect(Path file, BasicFileAttributes attrs) {
         long size = attrs.size();
-        var modified = attrs.lastModifiedTime().toInstant();
+        Instant modified = attrs.lastModifiedTime().toInstant();
+        String fileName = file.getFileName().toString();
+        Optional<Language> language = Language.ofFileName(fileName);
         Head head;
         try {
             head = readHead(file, size);
         } catch (IOException e) {
-            String message = "Could not read the file: " + e.getMessage();
-            var seen = new DatasetSeen(uri, name, org.headwater.model.DatasetKind.OTHER, sourceId, "unknown", size,
-                    modified, null, null, false, null, message, null);
-            return new Inspection(seen, "unreadable", message);
+            return new Facts(file, size, modified, null, language, null, "unknown", "unreadable",
+                    "Could not read the file: " + e.getMessage());
         }
-        var language = Language.ofFileName(file.getFileName().toString());
         if (language.isPresent()) {
-            return new Inspection(new ScriptSeen(uri, name, language.get(), sourceId, size, modified, head.sha256(), null),
-                    null, null);
+            return new Facts(file, size, modified, head.sha256(), language, null, null, null, null);
         }
-        Sample sample = new Sample(file.getFileName().toString(), head.bytes(), head.bytes().length >= size, size);
+        Sample sample = new Sample(fileName, head.bytes(), head.bytes().length >= size, size);
+        String fallback = sample.extension().isEmpty() ? "unknown" : sample.extension();
         try {
-            Reading r = formats.read(sample);
-            return new Inspection(new DatasetSeen(uri, name, r.kind(), sourceId, r.format(), size, modified, head.sha256(),
-                    r.rowCount(), r.rowCountExact(), Json.canonical(r.details()), null, r.columns()), null, null);
+            return new Facts(file, size, modified, head.sha256(), language, formats.read(sample), fallback, null, null);
         } catch (UnreadableFileException e) {
-            var seen = new DatasetSeen(uri, name, org.headwater.model.DatasetKind.OTHER, sourceId, sample.extension().isEmpty()
-                    ? "unknown" : sample.extension(), size, modified, head.sha256(), null, false, null, e.getMessage(), null);
-            return new Inspection(seen, e.kind(), e.getMessage());
+            return new Facts(file, size, modified, head.sha256(), language, null, fallback, e.kind(), e.getMessage());
         } catch (RuntimeException e) {
             // A reader bug must cost one file, not the harvest; the message names the reader's failure.
-            String message = "The format reader failed: " + e;
-            var seen = new DatasetSeen(uri, name, org.headwater.model.DatasetKind.OTHER, sourceId, "unknown", size, modified,
-                    head.sha256(), null, false, null, message, null);
-            return new Inspection(seen, "reader_failure", message);
+            return new Facts(file, size, modified, head.sha256(), language, null, fallback, "reader_failure",
+                    "The format reader failed: " + e);
         }
     }
 

@@ -34,6 +34,7 @@ public final class Ingestor {
     private final EdgeApplier edges = new EdgeApplier();
     private final NoteApplier notes = new NoteApplier();
     private final OwnerApplier owners = new OwnerApplier();
+    private final PartitionApplier partitions = new PartitionApplier();
 
     public Ingestor(Store store, Clock clock) {
         this.store = store;
@@ -83,6 +84,10 @@ public final class Ingestor {
             datasets.apply(tx, o);
         } else if (observation instanceof DatasetGone o) {
             datasets.apply(tx, o);
+        } else if (observation instanceof Observation.PartitionSeen o) {
+            partitions.apply(tx, o);
+        } else if (observation instanceof Observation.PartitionGone o) {
+            partitions.apply(tx, o);
         } else if (observation instanceof ScriptSeen o) {
             scripts.apply(tx, o);
         } else if (observation instanceof ScriptGone o) {

@@ -41,6 +41,34 @@ public sealed interface Observation {
         }
     }
 
+    /**
+     * One file of a partitioned set exists and looks like this. The set's identity is created if needed;
+     * the set's own facts (union schema, totals) come in a {@link DatasetSeen} for the set.
+     *
+     * @param keys the values of the set's variable path parts, as canonical JSON ({"month":"01"})
+     * @param columns the partition's own columns, or null when it could not be read
+     */
+    record PartitionSeen(String setUri, String setName, Long sourceId, String uri, String name, String keys,
+            Long sizeBytes, Instant modifiedAt, String contentHash, Long rowCount, boolean rowCountExact,
+            List<ColumnDef> columns, String error) implements Observation {
+        public PartitionSeen {
+            Objects.requireNonNull(setUri, "setUri");
+            Objects.requireNonNull(setName, "setName");
+            Objects.requireNonNull(uri, "uri");
+            Objects.requireNonNull(name, "name");
+            Objects.requireNonNull(keys, "keys");
+            columns = columns == null ? null : List.copyOf(columns);
+        }
+    }
+
+    /** A partition that was seen before is no longer there. */
+    record PartitionGone(String setUri, String uri) implements Observation {
+        public PartitionGone {
+            Objects.requireNonNull(setUri, "setUri");
+            Objects.requireNonNull(uri, "uri");
+        }
+    }
+
     /** A script exists and this is its current version. */
     record ScriptSeen(String uri, String name, Language language, Long sourceId, Long sizeBytes,
             Instant modifiedAt, String contentHash, String gitCommit) implements Observation {

@@ -5,6 +5,7 @@ import static org.headwater.store.schema.Tables.CHANGE_LOG;
 import static org.headwater.store.schema.Tables.DATASET;
 import static org.headwater.store.schema.Tables.DATASET_NOTE;
 import static org.headwater.store.schema.Tables.DATASET_OWNER;
+import static org.headwater.store.schema.Tables.DATASET_PARTITION;
 import static org.headwater.store.schema.Tables.DATASET_STATE;
 import static org.headwater.store.schema.Tables.HARVEST;
 import static org.headwater.store.schema.Tables.HARVEST_ERROR;
@@ -35,7 +36,9 @@ import org.headwater.store.Views.EdgeView;
 import org.headwater.store.Views.HarvestErrorView;
 import org.headwater.store.Views.HarvestView;
 import org.headwater.store.Views.IndexEntry;
+import org.headwater.store.Views.FileRole;
 import org.headwater.store.Views.KnownFile;
+import org.headwater.store.Views.PartitionView;
 import org.headwater.store.Views.OwnerView;
 import org.headwater.store.Views.SchemaVersionView;
 import org.headwater.store.Views.ScriptView;
@@ -132,8 +135,37 @@ public final class CatalogReader {
                 owners,
                 schema == null ? null : schema.getVersion(),
                 columns,
+                partitions(id, asOf),
                 edges(id, true, asOf),
                 edges(id, false, asOf)));
+    }
+
+    /** The member files of a partitioned set, by name. */
+    public List<PartitionView> partitions(long datasetId, Instant asOf) {
+        return db.selectFrom(DATASET_PARTITION)
+                .where(DATASET_PARTITION.DATASET_ID.eq(datasetId),
+                        Validity.at(DATASET_PARTITION.VALID_FROM, DATASET_PARTITION.VALID_TO, asOf))
+                .orderBy(DATASET_PARTITION.NAME)
+                .fetch(p -> new PartitionView(p.getName(), p.getUri(), p.getPartitionKeys(), p.getSizeBytes(),
+                        instant(p.getModifiedAt()), p.getContentHash(), p.getRowCount(), p.getRowCountExact(),
+                        parseColumns(p.getColumnsJson()), p.getError()));
+    }
+
+    private static List<ColumnView> parseColumns(String json) {
+        if (json == null) {
+            return List.of();
+        }
+        try {
+            List<ColumnView> columns = new ArrayList<>();
+            int ordinal = 1;
+            for (var c : JSON.readTree(json)) {
+                columns.add(new ColumnView(ordinal++, c.get("name").asText(), c.get("dataType").asText(),
+                        c.get("nullable").asBoolean()));
+            }
+            return columns;
+        } catch (IOException e) {
+            throw new StoreException("A stored partition column list is not valid JSON", e);
+        }
     }
 
     /** Every schema version a dataset has had, oldest first. */
@@ -242,11 +274,18 @@ public final class CatalogReader {
         db.select(DATASET.URI, DATASET_STATE.SIZE_BYTES, DATASET_STATE.MODIFIED_AT)
                 .from(DATASET).join(DATASET_STATE).on(DATASET_STATE.DATASET_ID.eq(DATASET.ID))
                 .where(DATASET.SOURCE_ID.eq(sourceId), DATASET_STATE.VALID_TO.isNull())
-                .forEach(r -> known.put(r.value1(), new KnownFile(r.value1(), r.value2(), instant(r.value3()), false)));
+                .forEach(r -> known.put(r.value1(), new KnownFile(r.value1(), r.value2(), instant(r.value3()),
+                        FileRole.DATASET, null)));
         db.select(SCRIPT.URI, SCRIPT_STATE.SIZE_BYTES, SCRIPT_STATE.MODIFIED_AT)
                 .from(SCRIPT).join(SCRIPT_STATE).on(SCRIPT_STATE.SCRIPT_ID.eq(SCRIPT.ID))
                 .where(SCRIPT.SOURCE_ID.eq(sourceId), SCRIPT_STATE.VALID_TO.isNull())
-                .forEach(r -> known.put(r.value1(), new KnownFile(r.value1(), r.value2(), instant(r.value3()), true)));
+                .forEach(r -> known.put(r.value1(), new KnownFile(r.value1(), r.value2(), instant(r.value3()),
+                        FileRole.SCRIPT, null)));
+        db.select(DATASET_PARTITION.URI, DATASET_PARTITION.SIZE_BYTES, DATASET_PARTITION.MODIFIED_AT, DATASET.URI)
+                .from(DATASET_PARTITION).join(DATASET).on(DATASET.ID.eq(DATASET_PARTITION.DATASET_ID))
+                .where(DATASET.SOURCE_ID.eq(sourceId), DATASET_PARTITION.VALID_TO.isNull())
+                .forEach(r -> known.put(r.value1(), new KnownFile(r.value1(), r.value2(), instant(r.value3()),
+                        FileRole.PARTITION, r.value4())));
         return known;
     }
 

@@ -35,8 +35,8 @@ public final class Views {
     public record DatasetView(long id, String uri, String name, String kind, String source, boolean present,
             Instant firstSeen, String format, Long sizeBytes, Instant modifiedAt, String contentHash, Long rowCount,
             boolean rowCountExact, @JsonRawValue String details, String error, String description, List<String> tags,
-            List<OwnerView> owners, Integer schemaVersion, List<ColumnView> columns, List<EdgeView> upstream,
-            List<EdgeView> downstream) {
+            List<OwnerView> owners, Integer schemaVersion, List<ColumnView> columns, List<PartitionView> partitions,
+            List<EdgeView> upstream, List<EdgeView> downstream) {
     }
 
     /** A script, with its current version. */
@@ -45,7 +45,15 @@ public final class Views {
     }
 
     /** A file the catalog already holds, with what incremental harvest compares. */
-    public record KnownFile(String uri, Long sizeBytes, Instant modifiedAt, boolean script) {
+    public record KnownFile(String uri, Long sizeBytes, Instant modifiedAt, FileRole role, String setUri) {
+    }
+
+    /** What a harvested file is in the catalog. */
+    public enum FileRole { DATASET, SCRIPT, PARTITION }
+
+    /** One member file of a partitioned set. */
+    public record PartitionView(String name, String uri, @JsonRawValue String keys, Long sizeBytes, Instant modifiedAt,
+            String contentHash, Long rowCount, boolean rowCountExact, List<ColumnView> columns, String error) {
     }
 
     /** What the search index stores of a dataset or script. */

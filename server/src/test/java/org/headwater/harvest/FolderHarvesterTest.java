@@ -143,4 +143,36 @@ class FolderHarvesterTest {
             assertThat(script.contentHash()).isEqualTo(expected);
         }
     }
+
+    @Test
+    void filesSharingAPartitionPatternBecomeOneSetWithTheUnionSchemaAndItsDrift() throws Exception {
+        Path lake = Files.createDirectories(temp.resolve("lake"));
+        Path jan = Files.createDirectories(lake.resolve("gauges/month=01")).resolve("levels.csv");
+        Path feb = Files.createDirectories(lake.resolve("gauges/month=02")).resolve("levels.csv");
+        Files.writeString(jan, "site,level_cm\nA,12\nB,13\n");
+        Files.writeString(feb, "site,level_cm,temp_c\nA,12.5,4\n");
+        try (Catalog catalog = TestCatalogs.fresh(temp.resolve("catalog"))) {
+            HarvestSummary first = catalog.harvestFolder(lake, false, HarvestProgress.NONE);
+
+            assertThat(first.datasets()).isEqualTo(1);
+            DatasetView set = catalog.reader().dataset(catalog.reader().findDatasets("gauges/month=*/levels.csv").get(0).id(),
+                    null).orElseThrow();
+            assertThat(set.kind()).isEqualTo("file_set");
+            assertThat(set.rowCount()).isEqualTo(3L);
+            assertThat(set.columns()).containsExactly(new ColumnView(1, "site", "text", false),
+                    new ColumnView(2, "level_cm", "decimal", false), new ColumnView(3, "temp_c", "integer", true));
+            assertThat(set.partitions()).extracting(p -> p.name() + " " + p.keys())
+                    .containsExactly("gauges/month=01/levels.csv {\"month\":\"01\"}", "gauges/month=02/levels.csv {\"month\":\"02\"}");
+            // January lacks temp_c and holds only whole numbers in level_cm; February matches the union.
+            assertThat(set.details()).contains("\"drift\":[{\"missing\":[\"temp_c\"],"
+                    + "\"partition\":\"gauges/month=01/levels.csv\",\"retyped\":[\"level_cm: integer\"]}]");
+
+            Files.delete(feb);
+            HarvestSummary second = catalog.harvestFolder(lake, false, HarvestProgress.NONE);
+            // One member left: no set any more, the file is a dataset of its own.
+            assertThat(second.datasets()).isEqualTo(1);
+            assertThat(catalog.reader().datasets(null, 0, 10, null)).extracting(d -> d.name() + " " + d.kind())
+                    .containsExactly("gauges/month=01/levels.csv file");
+        }
+    }
 }

@@ -61,7 +61,8 @@ class ApiServerTest {
         Answer health = get("/api/health");
         assertThat(health.status()).isEqualTo(200);
         assertThat(health.body().get("status").asText()).isEqualTo("ok");
-        assertThat(health.body().get("datasets").asInt()).isEqualTo(22);
+        // The demo holds 22 non-script files; 8 are partitions of 2 sets, so 16 datasets (and 8 scripts).
+        assertThat(health.body().get("datasets").asInt()).isEqualTo(16);
         assertThat(health.body().get("scripts").asInt()).isEqualTo(8);
     }
 
@@ -69,7 +70,8 @@ class ApiServerTest {
     void listsDatasetsInPagesAndGetsOneWithItsColumns() throws Exception {
         Answer page = get("/api/datasets?limit=5&offset=0&kind=file");
         assertThat(page.status()).isEqualTo(200);
-        assertThat(page.body().get("total").asInt()).isEqualTo(18);
+        // Of the 16 datasets, 2 are file sets, 3 figures and 1 (the README) other: 10 are plain files.
+        assertThat(page.body().get("total").asInt()).isEqualTo(10);
         assertThat(page.body().get("items")).hasSize(5);
 
         Answer found = get("/api/datasets?match=lab/nitrate_results_2025.csv");

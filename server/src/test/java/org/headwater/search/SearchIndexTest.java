@@ -76,7 +76,7 @@ class SearchIndexTest {
             }
         }
         try (Catalog catalog = Catalog.open(dataDir)) {
-            assertThat(catalog.index().documentCount()).isEqualTo(documents).isEqualTo(30);
+            assertThat(catalog.index().documentCount()).isEqualTo(documents).isEqualTo(24); // 16 datasets and 8 scripts
             assertThat(catalog.index().search("nitrate", null, 1).get(0).name()).isEqualTo("lab/nitrate_results_2025.csv");
         }
     }
