@@ -77,6 +77,13 @@ final class ShowCommand implements Callable<Integer> {
                     out.printf("    %3d  %-40s %-10s %s%n", c.ordinal(), c.name(), c.type(), c.nullable() ? "nullable" : "");
                 }
             }
+            if (!d.partitions().isEmpty()) {
+                out.printf("  partitions (%d):%n", d.partitions().size());
+                d.partitions().stream().limit(20).forEach(p -> out.printf("    %s  %s%n", p.name(), p.keys()));
+                if (d.partitions().size() > 20) {
+                    out.printf("    … and %d more (--json lists all)%n", d.partitions().size() - 20);
+                }
+            }
             d.owners().forEach(o -> out.printf("  owner:    %s (%s)%n", o.name(), o.reason()));
             d.upstream().forEach(e -> out.printf("  upstream: %s via %s [%s]%n", e.datasetName(), e.script(), e.evidence()));
             d.downstream().forEach(e -> out.printf("  downstream: %s via %s [%s]%n", e.datasetName(), e.script(), e.evidence()));

@@ -168,12 +168,18 @@ public final class CatalogReader {
         }
     }
 
-    /** Every schema version a dataset has had, oldest first. */
+    /** Every schema version a dataset has had, oldest first, each with its drift from the one before. */
     public List<SchemaVersionView> schemaHistory(long datasetId) {
-        return db.selectFrom(SCHEMA_VERSION).where(SCHEMA_VERSION.DATASET_ID.eq(datasetId))
-                .orderBy(SCHEMA_VERSION.VERSION)
-                .fetch(v -> new SchemaVersionView(v.getVersion(), instant(v.getValidFrom()), instant(v.getValidTo()),
-                        columnsOf(v.getId())));
+        List<SchemaVersionView> history = new ArrayList<>();
+        List<ColumnView> previous = List.of();
+        for (var v : db.selectFrom(SCHEMA_VERSION).where(SCHEMA_VERSION.DATASET_ID.eq(datasetId))
+                .orderBy(SCHEMA_VERSION.VERSION).fetch()) {
+            List<ColumnView> columns = columnsOf(v.getId());
+            history.add(new SchemaVersionView(v.getVersion(), instant(v.getValidFrom()), instant(v.getValidTo()), columns,
+                    Views.Drift.between(previous, columns)));
+            previous = columns;
+        }
+        return history;
     }
 
     private List<ColumnView> columnsOf(long schemaVersionId) {

@@ -18,8 +18,25 @@ public final class Views {
     public record ColumnView(int ordinal, String name, String type, boolean nullable) {
     }
 
-    /** One schema version of a dataset, for its history. */
-    public record SchemaVersionView(int version, Instant validFrom, Instant validTo, List<ColumnView> columns) {
+    /** One schema version of a dataset, for its history, with how it differs from the version before. */
+    public record SchemaVersionView(int version, Instant validFrom, Instant validTo, List<ColumnView> columns,
+            Drift drift) {
+    }
+
+    /** Columns added, removed and retyped (as {@code name: old -> new}) since the previous schema version. */
+    public record Drift(List<String> added, List<String> removed, List<String> retyped) {
+        public static Drift between(List<ColumnView> before, List<ColumnView> after) {
+            java.util.Map<String, String> old = new java.util.LinkedHashMap<>();
+            before.forEach(c -> old.put(c.name(), c.type()));
+            java.util.Map<String, String> now = new java.util.LinkedHashMap<>();
+            after.forEach(c -> now.put(c.name(), c.type()));
+            List<String> added = now.keySet().stream().filter(n -> !old.containsKey(n)).toList();
+            List<String> removed = old.keySet().stream().filter(n -> !now.containsKey(n)).toList();
+            List<String> retyped = now.entrySet().stream()
+                    .filter(e -> old.containsKey(e.getKey()) && !old.get(e.getKey()).equals(e.getValue()))
+                    .map(e -> e.getKey() + ": " + old.get(e.getKey()) + " -> " + e.getValue()).toList();
+            return new Drift(added, removed, retyped);
+        }
     }
 
     /** An owner of a dataset, and the rule or evidence that says so. */

@@ -10,6 +10,7 @@ import java.time.Instant;
 import java.util.List;
 import org.headwater.Catalog;
 import org.headwater.store.Views.ColumnView;
+import org.headwater.store.Views.Drift;
 import org.headwater.store.Views.DatasetView;
 import org.headwater.testing.StoreCounts;
 import org.headwater.testing.TestCatalogs;
@@ -61,6 +62,7 @@ class FolderHarvesterTest {
             assertThat(history.get(0).columns()).extracting(ColumnView::name).containsExactly("site", "flow_l_s");
             assertThat(history.get(1).columns()).extracting(ColumnView::name).containsExactly("site", "flow_l_s", "temp_c");
             assertThat(history.get(1).columns()).extracting(ColumnView::type).containsExactly("text", "decimal", "integer");
+            assertThat(history.get(1).drift()).isEqualTo(new Drift(List.of("temp_c"), List.of(), List.of()));
         }
     }
 

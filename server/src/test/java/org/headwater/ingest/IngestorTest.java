@@ -102,6 +102,8 @@ class IngestorTest {
         assertThat(history).extracting(h -> h.version()).containsExactly(1, 2);
         assertThat(history.get(0).validTo()).isEqualTo(history.get(1).validFrom());
         assertThat(history.get(1).columns()).extracting(ColumnView::name).containsExactly("gauge_id", "level_mm");
+        assertThat(history.get(1).drift()).isEqualTo(
+                new org.headwater.store.Views.Drift(List.of("level_mm"), List.of("level_cm"), List.of()));
 
         DatasetView before = catalog.reader().dataset(id, between).orElseThrow();
         assertThat(before.schemaVersion()).isEqualTo(1);
