@@ -139,6 +139,7 @@ public final class FolderHarvester {
             throw e;
         } finally {
             pool.shutdownNow();
+            run.git.close();
         }
         journal.finish(harvestId, status, run.counts());
         progress.finished();
@@ -208,6 +209,7 @@ public final class FolderHarvester {
         final Map<String, SetInfo> sets = new LinkedHashMap<>();
         final List<Observation> batch = new ArrayList<>();
         final Map<String, Integer> errorsByKind = new TreeMap<>();
+        final GitHistory git = new GitHistory();
         final List<HarvestErrorView> firstErrors = new ArrayList<>();
         int filesSeen;
         int unchanged;
@@ -297,8 +299,12 @@ public final class FolderHarvester {
         private Observation observation(Listed f, Facts facts, Placement placement) {
             String uri = f.file().toUri().toString();
             if (facts.language().isPresent()) {
+                var git = this.git.of(f.file());
                 return new ScriptSeen(uri, f.name(), facts.language().get(), sourceId, facts.size(), facts.modified(),
-                        facts.sha256(), null);
+                        facts.sha256(), git.map(GitHistory.FileHistory::commit).orElse(null),
+                        git.map(GitHistory.FileHistory::author).orElse(null),
+                        git.map(GitHistory.FileHistory::committedAt).orElse(null),
+                        git.map(GitHistory.FileHistory::authors).orElse(List.of()));
             }
             Reading r = facts.reading();
             if (placement != null) {

@@ -69,13 +69,20 @@ public sealed interface Observation {
         }
     }
 
-    /** A script exists and this is its current version. */
+    /**
+     * A script exists and this is its current version.
+     *
+     * @param gitCommit the last commit that changed the file, or null outside git
+     * @param gitAuthors everyone who changed it in git, most recent first (names only)
+     */
     record ScriptSeen(String uri, String name, Language language, Long sourceId, Long sizeBytes,
-            Instant modifiedAt, String contentHash, String gitCommit) implements Observation {
+            Instant modifiedAt, String contentHash, String gitCommit, String gitAuthor, Instant gitCommittedAt,
+            List<String> gitAuthors) implements Observation {
         public ScriptSeen {
             Objects.requireNonNull(uri, "uri");
             Objects.requireNonNull(name, "name");
             Objects.requireNonNull(language, "language");
+            gitAuthors = gitAuthors == null ? List.of() : List.copyOf(gitAuthors);
         }
     }
 

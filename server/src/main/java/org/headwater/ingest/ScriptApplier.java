@@ -16,6 +16,7 @@ final class ScriptApplier {
     void apply(Tx tx, ScriptSeen seen) {
         long id = identity(tx, seen);
         OffsetDateTime modified = DatasetApplier.toStoredTime(seen.modifiedAt());
+        String authors = seen.gitAuthors().isEmpty() ? null : Json.stringArray(seen.gitAuthors());
         ScriptStateRecord current = tx.db.selectFrom(SCRIPT_STATE)
                 .where(SCRIPT_STATE.SCRIPT_ID.eq(id), SCRIPT_STATE.VALID_TO.isNull())
                 .fetchOne();
@@ -23,7 +24,10 @@ final class ScriptApplier {
                 && Objects.equals(current.getSizeBytes(), seen.sizeBytes())
                 && DatasetApplier.sameInstant(current.getModifiedAt(), modified)
                 && Objects.equals(current.getContentHash(), seen.contentHash())
-                && Objects.equals(current.getGitCommit(), seen.gitCommit())) {
+                && Objects.equals(current.getGitCommit(), seen.gitCommit())
+                && Objects.equals(current.getGitAuthor(), seen.gitAuthor())
+                && DatasetApplier.sameInstant(current.getGitCommittedAt(), DatasetApplier.toStoredTime(seen.gitCommittedAt()))
+                && Objects.equals(current.getGitAuthors(), authors)) {
             return;
         }
         if (current != null) {
@@ -37,6 +41,9 @@ final class ScriptApplier {
                 .set(SCRIPT_STATE.MODIFIED_AT, modified)
                 .set(SCRIPT_STATE.CONTENT_HASH, seen.contentHash())
                 .set(SCRIPT_STATE.GIT_COMMIT, seen.gitCommit())
+                .set(SCRIPT_STATE.GIT_AUTHOR, seen.gitAuthor())
+                .set(SCRIPT_STATE.GIT_COMMITTED_AT, DatasetApplier.toStoredTime(seen.gitCommittedAt()))
+                .set(SCRIPT_STATE.GIT_AUTHORS, authors)
                 .execute();
         tx.changed(Change.SCRIPT, id, "state", seen.name());
     }

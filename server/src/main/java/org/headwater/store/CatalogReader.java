@@ -259,7 +259,8 @@ public final class CatalogReader {
 
     private List<ScriptView> scriptQuery(Condition condition, int offset, int limit) {
         return db.select(SCRIPT.ID, SCRIPT.URI, SCRIPT.NAME, SCRIPT.LANGUAGE, SOURCE.NAME, SCRIPT_STATE.ID,
-                        SCRIPT_STATE.SIZE_BYTES, SCRIPT_STATE.MODIFIED_AT, SCRIPT_STATE.CONTENT_HASH, SCRIPT_STATE.GIT_COMMIT)
+                        SCRIPT_STATE.SIZE_BYTES, SCRIPT_STATE.MODIFIED_AT, SCRIPT_STATE.CONTENT_HASH, SCRIPT_STATE.GIT_COMMIT,
+                        SCRIPT_STATE.GIT_AUTHOR, SCRIPT_STATE.GIT_COMMITTED_AT, SCRIPT_STATE.GIT_AUTHORS)
                 .from(SCRIPT)
                 .leftJoin(SCRIPT_STATE).on(SCRIPT_STATE.SCRIPT_ID.eq(SCRIPT.ID), SCRIPT_STATE.VALID_TO.isNull())
                 .leftJoin(SOURCE).on(SOURCE.ID.eq(SCRIPT.SOURCE_ID))
@@ -267,7 +268,8 @@ public final class CatalogReader {
                 .orderBy(SCRIPT.NAME, SCRIPT.ID)
                 .offset(offset).limit(limit)
                 .fetch(r -> new ScriptView(r.value1(), r.value2(), r.value3(), r.value4(), r.value5(), r.value6() != null,
-                        r.value7(), instant(r.value8()), r.value9(), r.value10()));
+                        r.value7(), instant(r.value8()), r.value9(), r.value10(), r.value11(), instant(r.value12()),
+                        r.value13()));
     }
 
     public int scriptCount() {

@@ -58,7 +58,8 @@ public final class Views {
 
     /** A script, with its current version. */
     public record ScriptView(long id, String uri, String name, String language, String source, boolean present,
-            Long sizeBytes, Instant modifiedAt, String contentHash, String gitCommit) {
+            Long sizeBytes, Instant modifiedAt, String contentHash, String gitCommit, String gitAuthor,
+            Instant gitCommittedAt, @JsonRawValue String gitAuthors) {
     }
 
     /** A file the catalog already holds, with what incremental harvest compares. */
