@@ -42,6 +42,8 @@ public final class ApiServer implements AutoCloseable {
         var search = new SearchRoutes(catalog);
         var scripts = new ScriptRoutes(catalog);
         var harvests = new HarvestRoutes(catalog);
+        var runs = new RunRoutes(catalog);
+        var whence = new WhenceRoutes(catalog);
         long startedAt = System.currentTimeMillis();
         Javalin app = Javalin.create(config -> {
             config.jsonMapper(new JavalinJackson(mapper, false));
@@ -69,6 +71,9 @@ public final class ApiServer implements AutoCloseable {
             config.routes.get("/api/search", search::search);
             config.routes.get("/api/scripts", scripts::list);
             config.routes.get("/api/scripts/{id}", scripts::one);
+            config.routes.post("/api/runs", runs::post);
+            config.routes.get("/api/runs", whence::runs);
+            config.routes.get("/api/whence", whence::whence);
             config.routes.get("/api/harvests", harvests::list);
             config.routes.get("/api/harvests/{id}", harvests::one);
             config.routes.exception(ApiError.class, (e, ctx) ->

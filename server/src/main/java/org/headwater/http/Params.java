@@ -25,6 +25,14 @@ final class Params {
         }
     }
 
+    static long longValue(String name, String raw) {
+        try {
+            return Long.parseLong(raw);
+        } catch (NumberFormatException e) {
+            throw ApiError.badRequest("Parameter '" + name + "' must be a whole number, got '" + raw + "'");
+        }
+    }
+
     static long pathId(Context ctx, String name) {
         String raw = ctx.pathParam(name);
         try {

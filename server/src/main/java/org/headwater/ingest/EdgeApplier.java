@@ -84,9 +84,14 @@ final class EdgeApplier {
         return id != null ? id : DatasetApplier.identity(tx, uri, DatasetNames.fallbackName(uri), DatasetKind.OTHER, null);
     }
 
+    /**
+     * What makes two observations of the same edge the same version. The run id is left out on purpose:
+     * every run of an unchanged script confirms the same edge, and a new version per run would bury the
+     * real changes in history. The row keeps the run that first showed this version; all runs are in run_io.
+     */
     private static String fingerprint(EdgeSeen seen) {
         StringBuilder text = new StringBuilder()
-                .append(seen.confidence()).append('|').append(seen.scriptHash()).append('|').append(seen.runId());
+                .append(seen.confidence()).append('|').append(seen.scriptHash());
         List<ColumnFlow> flows = seen.columns().stream()
                 .sorted(Comparator.comparing(ColumnFlow::sourceColumn)
                         .thenComparing(f -> String.valueOf(f.targetColumn()))

@@ -35,6 +35,7 @@ public final class Ingestor {
     private final NoteApplier notes = new NoteApplier();
     private final OwnerApplier owners = new OwnerApplier();
     private final PartitionApplier partitions = new PartitionApplier();
+    private final RunApplier runs = new RunApplier(edges);
 
     public Ingestor(Store store, Clock clock) {
         this.store = store;
@@ -96,6 +97,8 @@ public final class Ingestor {
             edges.apply(tx, o);
         } else if (observation instanceof EdgeGone o) {
             edges.apply(tx, o);
+        } else if (observation instanceof Observation.RunReported o) {
+            runs.apply(tx, o);
         } else if (observation instanceof NoteSet o) {
             notes.apply(tx, o);
         } else if (observation instanceof OwnerAssigned o) {

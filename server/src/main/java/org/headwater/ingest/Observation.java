@@ -134,6 +134,40 @@ public sealed interface Observation {
     /** How a source column reaches a target column. */
     enum ColumnRole { DIRECT, DERIVED, INFLUENCING }
 
+    /**
+     * One execution of a script, as a runtime connector reported it. The run id is made by the client,
+     * so a record sent twice is stored once.
+     *
+     * @param scriptUri the script's {@code file:} URI
+     * @param arguments the command-line arguments, as a JSON array text
+     */
+    record RunReported(String runId, String client, String scriptUri, String scriptHash, String gitCommit,
+            Instant startedAt, Instant endedAt, Integer exitCode, String exception, String user, String host,
+            String arguments, List<RunIo> io) implements Observation {
+        public RunReported {
+            Objects.requireNonNull(runId, "runId");
+            Objects.requireNonNull(scriptUri, "scriptUri");
+            Objects.requireNonNull(startedAt, "startedAt");
+            arguments = arguments == null ? "[]" : arguments;
+            io = io == null ? List.of() : List.copyOf(io);
+        }
+    }
+
+    /**
+     * One file a run read or wrote.
+     *
+     * @param direction {@code read}, {@code write}, {@code delete}, {@code rename_from} or {@code rename_to}
+     * @param columns the data frame's columns when the connector saw one, else null
+     */
+    record RunIo(String uri, String direction, Long sizeBytes, String contentHash, String via, List<ColumnDef> columns,
+            Long rowCount) {
+        public RunIo {
+            Objects.requireNonNull(uri, "uri");
+            Objects.requireNonNull(direction, "direction");
+            columns = columns == null ? null : List.copyOf(columns);
+        }
+    }
+
     /** What people wrote about a dataset: its description and tags, replacing the previous ones. */
     record NoteSet(String uri, String description, Set<String> tags, String author) implements Observation {
         public NoteSet {

@@ -11,6 +11,8 @@ import static org.headwater.store.schema.Tables.HARVEST;
 import static org.headwater.store.schema.Tables.HARVEST_ERROR;
 import static org.headwater.store.schema.Tables.LINEAGE_EDGE;
 import static org.headwater.store.schema.Tables.OWNER;
+import static org.headwater.store.schema.Tables.RUN;
+import static org.headwater.store.schema.Tables.RUN_IO;
 import static org.headwater.store.schema.Tables.SCHEMA_COLUMN;
 import static org.headwater.store.schema.Tables.SCHEMA_VERSION;
 import static org.headwater.store.schema.Tables.SCRIPT;
@@ -368,6 +370,19 @@ public final class CatalogReader {
         return db.selectDistinct(CHANGE_LOG.ENTITY, CHANGE_LOG.ENTITY_ID).from(CHANGE_LOG)
                 .where(CHANGE_LOG.SEQ.gt(seq))
                 .fetch(r -> Map.entry(r.value1(), r.value2()));
+    }
+
+    /** Recent runs, newest first. */
+    public List<Views.RunSummary> runs(int limit) {
+        var reads = DSL.field(DSL.selectCount().from(RUN_IO).where(RUN_IO.RUN_ID.eq(RUN.ID), RUN_IO.DIRECTION.eq("read")));
+        var writes = DSL.field(DSL.selectCount().from(RUN_IO).where(RUN_IO.RUN_ID.eq(RUN.ID), RUN_IO.DIRECTION.eq("write")));
+        return db.select(RUN.ID, SCRIPT.NAME, RUN.SCRIPT_URI, RUN.STARTED_AT, RUN.ENDED_AT, RUN.EXIT_CODE, RUN.EXCEPTION,
+                        RUN.USER_NAME, RUN.HOST, RUN.GIT_COMMIT, reads, writes)
+                .from(RUN).leftJoin(SCRIPT).on(SCRIPT.ID.eq(RUN.SCRIPT_ID))
+                .orderBy(RUN.STARTED_AT.desc()).limit(limit)
+                .fetch(r -> new Views.RunSummary(r.value1(), r.value2() != null ? r.value2() : r.value3(),
+                        instant(r.value4()), instant(r.value5()), r.value6(), r.value7(), r.value8(), r.value9(),
+                        r.value10(), r.value11(), r.value12()));
     }
 
     /** Recent harvests, newest first. */

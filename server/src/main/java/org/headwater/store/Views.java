@@ -62,6 +62,11 @@ public final class Views {
             Instant gitCommittedAt, @JsonRawValue String gitAuthors) {
     }
 
+    /** A run of a script, as lists show it. */
+    public record RunSummary(String id, String script, Instant startedAt, Instant endedAt, Integer exitCode,
+            String exception, String user, String host, String gitCommit, int reads, int writes) {
+    }
+
     /** A file the catalog already holds, with what incremental harvest compares. */
     public record KnownFile(String uri, Long sizeBytes, Instant modifiedAt, FileRole role, String setUri) {
     }
