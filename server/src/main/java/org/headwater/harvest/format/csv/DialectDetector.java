@@ -1,0 +1,44 @@
+package org.headwater.harvest.format.csv;
+
+import java.util.ArrayList;
+import java.util.Comparator;
+import java.util.List;
+
+/**
+ * Picks the dialect with the highest data-consistency score (see {@link DialectScorer}).
+ *
+ * <p>Ties (scores equal to 1e-9 relative) are common: a file without quotes parses the same
+ * with or without a quote character. The paper breaks them with rules on which characters
+ * actually act in the parse; ours, in the same spirit: first the dialect whose parse broke
+ * fewer quoting rules (a quote that only ever appears mid-field is no quote), then the
+ * usual delimiter order (, ; tab | : ^ ~ space), then the double quote before none before the
+ * single quote, then doubled quotes before backslash escapes.
+ */
+final class DialectDetector {
+
+  private static final double TIE = 1e-9;
+
+  private DialectDetector() {}
+
+  static DialectScore detect(CharSequence sample, boolean endOfFile, int maxRows,
+      char forcedDelimiter) {
+    List<DialectScore> scores = new ArrayList<>();
+    double best = 0.0;
+    for (Dialect dialect : DialectCandidates.of(sample, forcedDelimiter)) {
+      // Pruning on P alone is only safe strictly below the best: an equal P may tie.
+      DialectScore score = DialectScorer.score(sample, endOfFile, maxRows, dialect,
+          best * (1 - TIE));
+      scores.add(score);
+      best = Math.max(best, score.consistency());
+    }
+    double max = best;
+    return scores.stream()
+        .filter(s -> s.consistency() >= max * (1 - TIE))
+        .min(Comparator
+            .comparingInt((DialectScore s) -> s.parsed().irregularities())
+            .thenComparingInt(s -> DialectCandidates.delimiterRank(s.dialect().delimiter()))
+            .thenComparingInt(s -> DialectCandidates.quoteRank(s.dialect().quote()))
+            .thenComparingInt(s -> DialectCandidates.escapeRank(s.dialect().escape())))
+        .orElseThrow();
+  }
+}
