@@ -13,6 +13,10 @@ import java.util.List;
  * fewer quoting rules (a quote that only ever appears mid-field is no quote), then the
  * usual delimiter order (, ; tab | : ^ ~ space), then the double quote before none before the
  * single quote, then doubled quotes before backslash escapes.
+ *
+ * <p>A sample without any double quote parses the same with the RFC 4180 quote as without
+ * one; we then report the double quote, which keeps rows beyond the sample readable should
+ * they quote a field.
  */
 final class DialectDetector {
 
@@ -32,7 +36,7 @@ final class DialectDetector {
       best = Math.max(best, score.consistency());
     }
     double max = best;
-    return scores.stream()
+    DialectScore chosen = scores.stream()
         .filter(s -> s.consistency() >= max * (1 - TIE))
         .min(Comparator
             .comparingInt((DialectScore s) -> s.parsed().irregularities())
@@ -40,5 +44,21 @@ final class DialectDetector {
             .thenComparingInt(s -> DialectCandidates.quoteRank(s.dialect().quote()))
             .thenComparingInt(s -> DialectCandidates.escapeRank(s.dialect().escape())))
         .orElseThrow();
+    Dialect dialect = chosen.dialect();
+    if (dialect.quote() == null && dialect.delimiter() != '"' && !contains(sample, '"')) {
+      Escape escape = dialect.escape() == Escape.BACKSLASH ? Escape.BACKSLASH : Escape.DOUBLE;
+      return new DialectScore(new Dialect(dialect.delimiter(), '"', escape), chosen.pattern(),
+          chosen.type(), chosen.consistency(), chosen.parsed());
+    }
+    return chosen;
+  }
+
+  private static boolean contains(CharSequence text, char c) {
+    for (int i = 0, n = text.length(); i < n; i++) {
+      if (text.charAt(i) == c) {
+        return true;
+      }
+    }
+    return false;
   }
 }
