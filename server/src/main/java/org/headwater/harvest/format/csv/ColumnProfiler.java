@@ -2,7 +2,6 @@ package org.headwater.harvest.format.csv;
 
 import java.math.BigDecimal;
 import java.util.ArrayList;
-import java.util.Comparator;
 import java.util.List;
 import org.apache.datasketches.hll.HllSketch;
 
@@ -45,12 +44,11 @@ final class ColumnProfiler {
       List<CsvRecord> rows, NumberConvention convention, List<String> warnings) {
     LogicalType type = inference.type();
     TemporalPattern temporal = inference.temporal();
-    Comparator<String> order = order(type, convention, temporal);
     boolean numeric = type == LogicalType.INTEGER || type == LogicalType.DECIMAL;
     HllSketch distinct = new HllSketch(LG_K);
+    Extremes extremes = new Extremes();
+    Extremes sentinelExtremes = new Extremes();
     long nulls = 0;
-    String min = null;
-    String max = null;
     long sentinels = 0;
     boolean negatives = false;
     List<String> sentinelSpellings = new ArrayList<>(2);
@@ -64,66 +62,97 @@ final class ColumnProfiler {
         nulls++;
         continue;
       }
+      Comparable<?> key = key(type, value, convention, temporal);
       if (numeric) {
-        BigDecimal number = number(value, convention);
+        BigDecimal number = (BigDecimal) key;
         if (MissingValues.isSentinel(number)) {
           sentinels++;
           if (!sentinelSpellings.contains(value)) {
             sentinelSpellings.add(value);
           }
+          sentinelExtremes.offer(key, value);
           continue;
         }
         negatives |= number.signum() < 0;
       }
       distinct.update(value);
-      if (min == null || order.compare(value, min) < 0) {
-        min = value;
-      }
-      if (max == null || order.compare(value, max) > 0) {
-        max = value;
-      }
+      extremes.offer(key, value);
     }
     if (sentinels > 0) {
-      if (!negatives && min != null) {
+      if (!negatives && extremes.min != null) {
         nulls += sentinels;
         warnings.add("column " + name + ": " + sentinels + " cell(s) " + sentinelSpellings
             + " counted as missing: a sentinel in a column never otherwise below zero");
       } else {
-        for (String spelling : sentinelSpellings) {
-          distinct.update(spelling);
-          if (min == null || order.compare(spelling, min) < 0) {
-            min = spelling;
-          }
-          if (max == null || order.compare(spelling, max) > 0) {
-            max = spelling;
-          }
-        }
+        sentinelSpellings.forEach(distinct::update);
+        extremes.offer(sentinelExtremes.minKey, sentinelExtremes.min);
+        extremes.offer(sentinelExtremes.maxKey, sentinelExtremes.max);
       }
     }
-    if ((type == LogicalType.DATE || type == LogicalType.TIMESTAMP) && temporal.ambiguousOrder()) {
+    boolean temporalType = type == LogicalType.DATE || type == LogicalType.TIMESTAMP;
+    if (temporalType && temporal.ambiguousOrder()) {
       warnings.add("column " + name + ": day and month order is ambiguous (no day above 12); "
           + "assumed " + temporal.pattern());
     }
-    String pattern = type == LogicalType.DATE || type == LogicalType.TIMESTAMP
-        ? temporal.pattern() : null;
     long distinctEstimate = distinct.isEmpty() ? 0 : Math.round(distinct.getEstimate());
-    return new ColumnProfile(name, type, pattern, nulls, min, max, distinctEstimate, nulls > 0);
+    return new ColumnProfile(name, type, temporalType ? temporal.pattern() : null, nulls,
+        extremes.min, extremes.max, distinctEstimate, nulls > 0);
   }
 
-  private static Comparator<String> order(LogicalType type, NumberConvention convention,
+  /**
+   * The value's position in its type's order, computed once per value: numbers by value,
+   * false before true, dates and timestamps by instant (local ones as if at UTC), text in the
+   * JDK's natural String order (UTF-16 code units).
+   */
+  private static Comparable<?> key(LogicalType type, String value, NumberConvention convention,
       TemporalPattern temporal) {
     return switch (type) {
-      case INTEGER, DECIMAL -> Comparator.comparing(v -> number(v, convention));
-      case BOOLEAN -> Comparator.comparing(v -> Cells.booleanValue(v, 0, v.length()));
-      case DATE, TIMESTAMP -> Comparator
-          .comparingLong((String v) -> temporal.sortKeySeconds(TemporalScanner.scan(v, 0, v.length())))
-          .thenComparingInt(v -> TemporalScanner.scan(v, 0, v.length()).nanos());
-      // UTF-16 code unit order: the JDK's natural String order.
-      case TEXT -> Comparator.naturalOrder();
+      case INTEGER, DECIMAL -> number(value, convention);
+      case BOOLEAN -> Cells.booleanValue(value, 0, value.length());
+      case DATE, TIMESTAMP -> {
+        TemporalShape shape = TemporalScanner.scan(value, 0, value.length());
+        yield new Instant(temporal.sortKeySeconds(shape), shape.nanos());
+      }
+      case TEXT -> value;
     };
   }
 
+  /** A point in time to sort by: seconds, then nanoseconds. */
+  private record Instant(long seconds, int nanos) implements Comparable<Instant> {
+    @Override
+    public int compareTo(Instant other) {
+      int bySeconds = Long.compare(seconds, other.seconds);
+      return bySeconds != 0 ? bySeconds : Integer.compare(nanos, other.nanos);
+    }
+  }
+
+  /** The smallest and largest value seen, with their spellings. */
+  private static final class Extremes {
+    private Comparable<?> minKey;
+    private Comparable<?> maxKey;
+    private String min;
+    private String max;
+
+    @SuppressWarnings({"unchecked", "rawtypes"})
+    void offer(Comparable<?> key, String value) {
+      if (key == null) {
+        return;
+      }
+      if (minKey == null || ((Comparable) key).compareTo(minKey) < 0) {
+        minKey = key;
+        min = value;
+      }
+      if (maxKey == null || ((Comparable) key).compareTo(maxKey) > 0) {
+        maxKey = key;
+        max = value;
+      }
+    }
+  }
+
   private static BigDecimal number(String value, NumberConvention convention) {
-    return new BigDecimal(NumberScanner.normalize(value, 0, value.length(), convention));
+    boolean plain = convention.decimal() == '.' && value.indexOf(',') < 0
+        && (convention.group() == null || value.indexOf(convention.group()) < 0);
+    return new BigDecimal(plain ? value
+        : NumberScanner.normalize(value, 0, value.length(), convention));
   }
 }

@@ -85,6 +85,27 @@ public final class CsvParser {
     return new RecordCount(records, ordered, scan.counts());
   }
 
+  /**
+   * The cell count of each complete record from the start of {@code text}, without building
+   * cells: enough for the pattern score, and several times cheaper than {@link #parse}.
+   */
+  public int[] widths(CharSequence text, int maxRecords, boolean endOfFile) {
+    Scan scan = new Scan(text, 0, endOfFile, false);
+    int[] widths = new int[64];
+    int n = 0;
+    while (n < maxRecords) {
+      int start = scan.skipBlankLines();
+      if (start >= text.length() || scan.record() == null) {
+        break;
+      }
+      if (n == widths.length) {
+        widths = java.util.Arrays.copyOf(widths, n * 2);
+      }
+      widths[n++] = scan.fields;
+    }
+    return java.util.Arrays.copyOf(widths, n);
+  }
+
   /** A record count and the start offsets of the last few records, oldest first. */
   public record RecordCount(long records, int[] lastStarts, TerminatorCounts terminators) {}
 
@@ -99,6 +120,8 @@ public final class CsvParser {
     private final boolean doubled = dialect.escape() == Escape.DOUBLE;
     private final StringBuilder cell = new StringBuilder();
     private int pos;
+    /** Fields of the record read last. */
+    private int fields;
     private boolean truncated;
     private int irregularities;
     private long lf;
@@ -132,11 +155,13 @@ public final class CsvParser {
     List<String> record() {
       int restart = pos;
       List<String> cells = build ? new ArrayList<>() : null;
+      fields = 0;
       while (true) {
         boolean complete = field();
         if (!complete) {
           return abandon(restart);
         }
+        fields++;
         if (build) {
           cells.add(cell.toString());
         }
@@ -147,8 +172,11 @@ public final class CsvParser {
         char c = text.charAt(pos);
         if (c == delimiter) {
           pos++;
-          if (pos >= end && endOfFile && build) {
-            cells.add("");
+          if (pos >= end && endOfFile) {
+            fields++;
+            if (build) {
+              cells.add("");
+            }
           }
           if (pos >= end) {
             return endOfFile ? nonNull(cells) : abandon(restart);

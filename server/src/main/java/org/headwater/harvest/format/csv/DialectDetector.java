@@ -37,7 +37,7 @@ final class DialectDetector {
     }
     double max = best;
     DialectScore chosen = scores.stream()
-        .filter(s -> s.consistency() >= max * (1 - TIE))
+        .filter(s -> s.parsed() != null && s.consistency() >= max * (1 - TIE))
         .min(Comparator
             .comparingInt((DialectScore s) -> s.parsed().irregularities())
             .thenComparingInt(s -> DialectCandidates.delimiterRank(s.dialect().delimiter()))

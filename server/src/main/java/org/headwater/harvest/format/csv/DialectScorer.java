@@ -32,22 +32,27 @@ final class DialectScorer {
    */
   static DialectScore score(CharSequence sample, boolean endOfFile, int maxRows,
       Dialect dialect, double bestSoFar) {
-    ParsedRecords parsed = new CsvParser(dialect).parse(sample, 0, maxRows, endOfFile);
-    double p = patternScore(parsed.records());
+    CsvParser parser = new CsvParser(dialect);
+    double p = patternScore(parser.widths(sample, maxRows, endOfFile));
     if (p < bestSoFar) {
-      return new DialectScore(dialect, p, Double.NaN, 0.0, parsed);
+      return new DialectScore(dialect, p, Double.NaN, 0.0, null);
     }
+    ParsedRecords parsed = parser.parse(sample, 0, maxRows, endOfFile);
     double t = typeScore(parsed.records());
     return new DialectScore(dialect, p, t, p * t, parsed);
   }
 
   static double patternScore(List<CsvRecord> records) {
-    if (records.isEmpty()) {
+    return patternScore(records.stream().mapToInt(CsvRecord::width).toArray());
+  }
+
+  static double patternScore(int[] widths) {
+    if (widths.length == 0) {
       return 0.0;
     }
     Map<Integer, Integer> rowsByWidth = new HashMap<>();
-    for (CsvRecord record : records) {
-      rowsByWidth.merge(record.width(), 1, Integer::sum);
+    for (int width : widths) {
+      rowsByWidth.merge(width, 1, Integer::sum);
     }
     double sum = 0.0;
     for (Map.Entry<Integer, Integer> pattern : rowsByWidth.entrySet()) {

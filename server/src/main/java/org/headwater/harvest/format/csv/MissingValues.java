@@ -27,7 +27,7 @@ final class MissingValues {
     if (length == 0) {
       return true;
     }
-    if (length > 4) {
+    if (length > 4 || !mayStartToken(s.charAt(from))) {
       return false;
     }
     return TOKENS.contains(s.subSequence(from, to).toString());
@@ -35,7 +35,13 @@ final class MissingValues {
 
   /** Whether a trimmed cell is missing. */
   static boolean isMissing(String trimmed) {
-    return trimmed.isEmpty() || trimmed.length() <= 4 && TOKENS.contains(trimmed);
+    return trimmed.isEmpty()
+        || trimmed.length() <= 4 && mayStartToken(trimmed.charAt(0)) && TOKENS.contains(trimmed);
+  }
+
+  /** Every token starts with N, n, # or -: a cheap test before the set look-up. */
+  private static boolean mayStartToken(char c) {
+    return c == 'N' || c == 'n' || c == '#' || c == '-';
   }
 
   /** Whether a normalized number is one of the sentinels -999 or -9999 (any zero fraction). */

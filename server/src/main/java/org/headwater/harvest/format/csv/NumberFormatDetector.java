@@ -14,6 +14,9 @@ import java.util.List;
  */
 final class NumberFormatDetector {
 
+  /** Rows examined: plenty of evidence, bounded cost (our choice). */
+  static final int MAX_ROWS = 500;
+
   private NumberFormatDetector() {}
 
   static NumberFormat detect(List<CsvRecord> rows, char delimiter) {
@@ -21,11 +24,12 @@ final class NumberFormatDetector {
     int[] counts = new int[candidates.size()];
     boolean[] grouped = new boolean[candidates.size()];
     boolean[] fraction = new boolean[candidates.size()];
-    for (CsvRecord row : rows) {
+    for (CsvRecord row : rows.subList(0, Math.min(rows.size(), MAX_ROWS))) {
       for (String cell : row.cells()) {
         int from = Cells.trimStart(cell);
         int to = Cells.trimEnd(cell, from);
-        if (from == to || !looksNumeric(cell, from, to)) {
+        // Cells of digits alone read the same in every convention: they cannot decide.
+        if (from == to || !looksNumeric(cell, from, to) || digitsOnly(cell, from, to)) {
           continue;
         }
         for (int k = 0; k < counts.length; k++) {
@@ -51,6 +55,15 @@ final class NumberFormatDetector {
   private static boolean prefer(int k, int best, char delimiter) {
     // Index 1 is decimal comma, index 2 is '.' with ',' groups (see CANDIDATES).
     return delimiter == ',' && k == 2 && best == 1;
+  }
+
+  private static boolean digitsOnly(CharSequence s, int from, int to) {
+    for (int i = from; i < to; i++) {
+      if (!NumberScanner.isDigit(s.charAt(i))) {
+        return false;
+      }
+    }
+    return true;
   }
 
   private static boolean looksNumeric(CharSequence s, int from, int to) {
