@@ -10,9 +10,6 @@ import java.util.List;
  */
 public final class CsvSniffer {
 
-  /** How many metadata lines may stand between a preamble and the header (our choice). */
-  private static final int METADATA_RETRIES = 3;
-
   private final SniffLimits limits;
   private final EncodingDetector encodingDetector = new EncodingDetector();
 
@@ -90,66 +87,16 @@ public final class CsvSniffer {
         throw new NotDelimitedTextException(NotDelimitedTextException.Reason.NOT_TABULAR,
             "no complete record in the sample");
       }
-      int width = LayoutDetector.modalWidth(scored);
-      if (scored.size() >= 5 && width > 1 && LayoutDetector.shareOfWidth(scored, width) < 0.5) {
-        throw new NotDelimitedTextException(NotDelimitedTextException.Reason.NOT_TABULAR,
-            "no steady row width: " + width + " cells in only "
-                + Math.round(100 * LayoutDetector.shareOfWidth(scored, width)) + "% of rows");
-      }
-      if (width == 1) {
-        warnings.add("one column: no delimiter found");
-      }
+      int width = steadyWidth(scored);
 
-      int first = LayoutDetector.preambleRecords(scored, width);
       NumberFormat numbers = NumberFormatDetector.detect(
-          scored.subList(Math.min(first + 1, scored.size()), scored.size()), dialect.delimiter());
-      boolean header = false;
-      for (int retry = 0; retry <= METADATA_RETRIES && first < scored.size(); retry++) {
-        RowRole role = HeaderDetector.classify(scored.get(first),
-            scored.subList(first + 1, scored.size()), width, numbers.convention());
-        if (role == RowRole.METADATA && retry < METADATA_RETRIES) {
-          first++;
-          continue;
-        }
-        header = role == RowRole.HEADER;
-        break;
-      }
-      int tableStart = first < scored.size()
-          ? leading.offset() + scored.get(first).start() : text.length();
-      int skipLines = LayoutDetector.physicalLines(text, tableStart);
-      List<String> names;
-      int dataStart;
-      if (header) {
-        CsvRecord headerRecord = scored.get(first);
-        names = ColumnNames.fromHeader(headerRecord.cells(), width);
-        dataStart = leading.offset() + headerRecord.end();
-        if (headerRecord.width() > width) {
-          warnings.add("header has " + headerRecord.width() + " names for " + width + " columns");
-        }
-      } else {
-        names = ColumnNames.generated(width);
-        dataStart = tableStart;
-      }
+          scored.subList(Math.min(1, scored.size()), scored.size()), dialect.delimiter());
+      TableLayout layout = TableLocator.locate(text, leading.offset(), scored, width,
+          numbers.convention(), warnings);
 
-      CsvParser parser = new CsvParser(dialect);
-      ParsedRecords data = parser.parse(text, dataStart, limits.profileRows(), decodedAll);
-      List<CsvRecord> rows = data.records();
-      boolean reachedEnd = decodedAll && rows.size() < limits.profileRows();
-      int footer = 0;
-      long rowCount;
-      boolean exact = complete;
-      if (reachedEnd) {
-        footer = LayoutDetector.footerRecords(rows, width, -1);
-        rowCount = rows.size() - footer;
-      } else if (complete) {
-        CountedTail tail = countWholeFile(text, dataStart, charset, bom, parser, width);
-        footer = tail.footer();
-        rowCount = tail.records() - footer;
-      } else {
-        rowCount = estimate(rows, text, dataStart, decodeEnd - bom, bom);
-      }
-      List<CsvRecord> profiled = reachedEnd ? rows.subList(0, rows.size() - footer) : rows;
-      warnRagged(profiled, width);
+      DataRows data = dataRows(new CsvParser(dialect), text, layout, encoding,
+          decodedAll, decodeEnd - bom);
+      warnRagged(data.profiled(), width);
       if (best.parsed().irregularities() > 0) {
         warnings.add(best.parsed().irregularities() + " field(s) break the quoting rules of "
             + "RFC 4180 and were read leniently");
@@ -158,11 +105,51 @@ public final class CsvSniffer {
       if (terminators.mixed()) {
         warnings.add("mixed line terminators: " + terminators);
       }
-      List<ColumnProfile> columns = ColumnProfiler.profile(names, profiled, numbers.convention(),
-          warnings);
-      return new CsvSniff(charset, encoding.bom(), dialect, terminators.dominant(), header,
-          skipLines, footer, numbers.convention().decimal(), numbers.thousandsSeparator(),
-          columns, rowCount, exact, profiled.size(), warnings);
+      List<ColumnProfile> columns = ColumnProfiler.profile(layout.names(), data.profiled(),
+          numbers.convention(), warnings);
+      return new CsvSniff(charset, encoding.bom(), dialect, terminators.dominant(),
+          layout.header(), layout.skipLines(), data.footer(), numbers.convention().decimal(),
+          numbers.thousandsSeparator(), columns, data.rowCount(), complete,
+          data.profiled().size(), warnings);
+    }
+
+    /** The modal record width, refusing text whose records have no steady width. */
+    private int steadyWidth(List<CsvRecord> records) throws NotDelimitedTextException {
+      int width = LayoutDetector.modalWidth(records);
+      double share = LayoutDetector.shareOfWidth(records, width);
+      // Half the rows at one width: below that it is prose or a log, not a table (our choice).
+      if (records.size() >= 5 && width > 1 && share < 0.5) {
+        throw new NotDelimitedTextException(NotDelimitedTextException.Reason.NOT_TABULAR,
+            "no steady row width: " + width + " cells in only " + Math.round(100 * share)
+                + "% of rows");
+      }
+      if (width == 1) {
+        warnings.add("one column: no delimiter found");
+      }
+      return width;
+    }
+
+    /**
+     * Parses the data rows to profile and counts all of them: from the rows themselves when
+     * the text holds the whole file, by a cell-free scan of the bytes when the whole file is
+     * longer than the profile limit, by estimate from a head.
+     */
+    private DataRows dataRows(CsvParser parser, String text, TableLayout layout,
+        DetectedEncoding encoding, boolean decodedAll, int decodedBytes) {
+      List<CsvRecord> rows =
+          parser.parse(text, layout.dataStart(), limits.profileRows(), decodedAll).records();
+      if (decodedAll && rows.size() < limits.profileRows()) {
+        int footer = LayoutDetector.footerRecords(rows, layout.width(), -1);
+        List<CsvRecord> profiled = rows.subList(0, rows.size() - footer);
+        return new DataRows(profiled, profiled.size(), footer);
+      }
+      if (complete) {
+        RowCounter.Tally tally = RowCounter.countWholeFile(head, encoding.bomLength(),
+            encoding.charset(), text, layout.dataStart(), parser, layout.width());
+        return new DataRows(rows, tally.records() - tally.footer(), tally.footer());
+      }
+      return new DataRows(rows, RowCounter.estimate(rows, text, layout.dataStart(), decodedBytes,
+          encoding.bomLength(), fileSize, warnings), 0);
     }
 
     private void rejectBinary(String text) throws NotDelimitedTextException {
@@ -179,53 +166,6 @@ public final class CsvSniffer {
       }
     }
 
-    /** Counts the records of a whole file too long to profile entirely, and its footer. */
-    private CountedTail countWholeFile(String text, int dataStart, Charset charset, int bom,
-        CsvParser parser, int width) {
-      CharSequence full;
-      int start;
-      if (TextDecoder.asciiCompatible(charset)) {
-        full = new ByteCharView(head, bom, head.length);
-        start = text.substring(0, dataStart).getBytes(charset).length;
-      } else {
-        full = TextDecoder.decode(head, bom, head.length, charset, true);
-        start = dataStart;
-      }
-      CsvParser.RecordCount count = parser.count(full, start, LayoutDetector.MAX_FOOTER);
-      int footer = 0;
-      if (count.lastStarts().length > 0) {
-        // The tail is re-read as text so that a footer's words can be recognised.
-        int tailStart = count.lastStarts()[0];
-        CharSequence tailText = full instanceof ByteCharView
-            ? TextDecoder.decode(head, bom + tailStart, head.length, charset, true)
-            : full.subSequence(tailStart, full.length());
-        List<CsvRecord> tail = parser.parse(tailText, 0, LayoutDetector.MAX_FOOTER, true).records();
-        footer = LayoutDetector.footerRecords(tail, width, -1);
-      }
-      return new CountedTail(count.records(), footer);
-    }
-
-    /** Rows in the head, scaled by the bytes they take to the size of the file. */
-    private long estimate(List<CsvRecord> rows, String text, int dataStart, int decodedBytes,
-        int bom) {
-      if (rows.isEmpty()) {
-        warnings.add("row count unknown: no complete data row in the sample");
-        return 0;
-      }
-      if (fileSize < 0) {
-        warnings.add("row count is the sample's: file size unknown");
-        return rows.size();
-      }
-      double bytesPerChar = text.isEmpty() ? 1.0 : decodedBytes / (double) text.length();
-      int dataEnd = rows.get(rows.size() - 1).end();
-      double dataBytes = (dataEnd - dataStart) * bytesPerChar;
-      double before = bom + dataStart * bytesPerChar;
-      if (dataBytes <= 0) {
-        return rows.size();
-      }
-      return Math.max(rows.size(), Math.round(rows.size() * (fileSize - before) / dataBytes));
-    }
-
     private void warnRagged(List<CsvRecord> rows, int width) {
       long ragged = rows.stream().filter(r -> r.width() != width).count();
       if (ragged > 0) {
@@ -234,6 +174,6 @@ public final class CsvSniffer {
     }
   }
 
-  /** A whole-file record count and the footer records at its end. */
-  private record CountedTail(long records, int footer) {}
+  /** The rows profiled, the data rows counted, and the footer records left out. */
+  private record DataRows(List<CsvRecord> profiled, long rowCount, int footer) {}
 }
