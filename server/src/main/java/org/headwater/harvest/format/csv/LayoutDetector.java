@@ -66,13 +66,15 @@ final class LayoutDetector {
   /**
    * Leading records that are not part of the table: those of another width (titles, notes),
    * and, in tables of three or more columns, padded title rows such as "Report;;;;" whose
-   * filled cells are a short prefix while the next record is fuller.
+   * filled cells are a short prefix (at most half) while one of the next three records is
+   * fuller. A data row with only its first cells filled, above fuller rows, is mistaken for a
+   * title: we accept that.
    */
   static int preambleRecords(List<CsvRecord> records, int width) {
     int p = 0;
     while (p < records.size() - 1 && p < MAX_LEADING) {
       CsvRecord record = records.get(p);
-      if (record.width() != width || width >= 3 && paddedTitle(record, records.get(p + 1))) {
+      if (record.width() != width || width >= 3 && paddedTitle(record, records, p + 1)) {
         p++;
       } else {
         break;
@@ -81,12 +83,18 @@ final class LayoutDetector {
     return p;
   }
 
-  private static boolean paddedTitle(CsvRecord record, CsvRecord next) {
+  /** Looks ahead a few records, past blank padded rows, for a fuller one. */
+  private static boolean paddedTitle(CsvRecord record, List<CsvRecord> records, int next) {
     int filled = filledPrefix(record);
     if (filled < 0 || filled * 2 > record.width()) {
       return false;
     }
-    return filledCells(next) > filled;
+    for (int i = next; i < Math.min(records.size(), next + 3); i++) {
+      if (filledCells(records.get(i)) > filled) {
+        return true;
+      }
+    }
+    return false;
   }
 
   /** The number of filled cells if they are all at the start, else -1. */

@@ -103,7 +103,9 @@ class CsvSpectrumTest {
     List<Map<String, String>> rows = new ArrayList<>();
     for (JsonNode node : json.isArray() ? json : List.of(json)) {
       Map<String, String> object = new LinkedHashMap<>();
-      node.fields().forEachRemaining(e -> object.put(e.getKey(), e.getValue().asText()));
+      for (Map.Entry<String, JsonNode> e : node.properties()) {
+        object.put(e.getKey(), e.getValue().asText());
+      }
       rows.add(object);
     }
     return rows;
