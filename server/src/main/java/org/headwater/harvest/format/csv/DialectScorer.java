@@ -12,8 +12,8 @@ import java.util.Map;
  *
  * <p>Pattern score: parse the sample with the dialect; the row pattern of a record is its
  * cell count L. With K distinct patterns, pattern k seen N_k times,
- * P = (1/K) * sum_k N_k * max(alpha, (L_k - 1) / L_k). The paper's small alpha keeps
- * single-column parses comparable instead of all scoring zero; we use alpha = 0.001.
+ * P = (1/K) * sum_k N_k * max(alpha, (L_k - 1) / L_k). The small alpha (as we remember the
+ * paper, 0.001) keeps single-column parses comparable instead of all scoring zero.
  *
  * <p>Type score: T = (cells of a known type, see {@link KnownTypes}) / (all cells); when no
  * cell is known T is replaced by a tiny epsilon so that P still ranks the dialects.

@@ -8,7 +8,11 @@ import java.time.format.DateTimeFormatter;
 import java.util.List;
 import org.junit.jupiter.api.Test;
 
-/** The sniffer on small invented files, each with one kind of mess. */
+/**
+ * The sniffer on small invented files under src/test/resources/csv, each with one kind of
+ * mess. The expected values follow from how each fixture was written (its preamble, its
+ * separators, its dates), not from running the sniffer.
+ */
 class MessyFilesTest {
 
   private static CsvSniff sniff(String fixture) throws NotDelimitedTextException {
