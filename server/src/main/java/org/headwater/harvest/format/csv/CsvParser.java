@@ -56,7 +56,8 @@ public final class CsvParser {
       records.add(new CsvRecord(cells, start, scan.pos));
     }
     return new ParsedRecords(records, records.isEmpty() ? from : records.get(records.size() - 1).end(),
-        scan.truncated, scan.irregularities, scan.counts());
+        scan.truncated, scan.irregularities, scan.quotedFields, scan.escapes,
+        scan.specialEscapes, scan.counts());
   }
 
   /**
@@ -124,6 +125,9 @@ public final class CsvParser {
     private int fields;
     private boolean truncated;
     private int irregularities;
+    private int quotedFields;
+    private int escapes;
+    private int specialEscapes;
     private long lf;
     private long crlf;
     private long cr;
@@ -216,8 +220,11 @@ public final class CsvParser {
     private boolean field() {
       cell.setLength(0);
       boolean quoted = pos < end && dialect.isQuote(text.charAt(pos));
-      if (quoted && !quotedPart()) {
-        return false;
+      if (quoted) {
+        if (!quotedPart()) {
+          return false;
+        }
+        quotedFields++;
       }
       return unquotedPart(quoted);
     }
@@ -262,7 +269,7 @@ public final class CsvParser {
             appendChar(c);
             pos++;
           } else {
-            appendChar(text.charAt(pos + 1));
+            escaped(text.charAt(pos + 1));
             pos += 2;
           }
           runStart = pos;
@@ -293,7 +300,7 @@ public final class CsvParser {
             appendChar(c);
             pos++;
           } else {
-            appendChar(text.charAt(pos + 1));
+            escaped(text.charAt(pos + 1));
             pos += 2;
           }
           runStart = pos;
@@ -309,6 +316,15 @@ public final class CsvParser {
         irregularities++;
       }
       return true;
+    }
+
+    /** Appends an escaped character and notes whether the escape was needed. */
+    private void escaped(char c) {
+      appendChar(c);
+      escapes++;
+      if (c == delimiter || c == '\\' || c == '\n' || c == '\r' || dialect.isQuote(c)) {
+        specialEscapes++;
+      }
     }
 
     private void append(int from, int to) {

@@ -10,9 +10,11 @@ import java.util.List;
  * <p>Ties (scores equal to 1e-9 relative) are common: a file without quotes parses the same
  * with or without a quote character. The paper breaks them with rules on which characters
  * actually act in the parse; ours, in the same spirit: first the dialect whose parse broke
- * fewer quoting rules (a quote that only ever appears mid-field is no quote), then the
- * usual delimiter order (, ; tab | : ^ ~ space), then the double quote before none before the
- * single quote, then doubled quotes before backslash escapes.
+ * fewer quoting rules (a quote that only ever appears mid-field is no quote), then the one
+ * whose quote character quotes more fields, then a backslash escape only where every backslash
+ * protects a special character (see {@link #escapeEvidence}), then the usual delimiter order
+ * (, ; tab | : ^ ~ space), then the double quote before none before the single quote, then
+ * doubled quotes before backslash escapes.
  *
  * <p>A sample without any double quote parses the same with the RFC 4180 quote as without
  * one; we then report the double quote, which keeps rows beyond the sample readable should
@@ -40,6 +42,8 @@ final class DialectDetector {
         .filter(s -> s.parsed() != null && s.consistency() >= max * (1 - TIE))
         .min(Comparator
             .comparingInt((DialectScore s) -> s.parsed().irregularities())
+            .thenComparingInt(s -> -s.parsed().quotedFields())
+            .thenComparingInt(DialectDetector::escapeEvidence)
             .thenComparingInt(s -> DialectCandidates.delimiterRank(s.dialect().delimiter()))
             .thenComparingInt(s -> DialectCandidates.quoteRank(s.dialect().quote()))
             .thenComparingInt(s -> DialectCandidates.escapeRank(s.dialect().escape())))
@@ -51,6 +55,20 @@ final class DialectDetector {
           chosen.type(), chosen.consistency(), chosen.parsed());
     }
     return chosen;
+  }
+
+  /**
+   * 0 for a backslash dialect whose every escape protects a quote, delimiter, line break or
+   * backslash (what an escaping writer emits), 2 for one with escapes before ordinary
+   * characters (a Windows path, a regular expression: the backslash is literal there), 1 for
+   * the rest.
+   */
+  private static int escapeEvidence(DialectScore score) {
+    ParsedRecords parsed = score.parsed();
+    if (score.dialect().escape() != Escape.BACKSLASH) {
+      return 1;
+    }
+    return parsed.escapes() > 0 && parsed.escapes() == parsed.specialEscapes() ? 0 : 2;
   }
 
   private static boolean contains(CharSequence text, char c) {

@@ -56,4 +56,25 @@ class DialectDetectorTest {
     assertThat(detect("a^b^c\n1^2^3\n4^5^6\n").delimiter()).isEqualTo('^');
     assertThat(detect("a~b~c\n1~2~3\n4~5~6\n").delimiter()).isEqualTo('~');
   }
+
+  @Test
+  void prefersTheQuoteThatActuallyQuotesFields() {
+    // Read with or without the single quote the cells count the same; only with it does
+    // 'O''Neil' become one clean quoted field.
+    assertThat(detect("a:b\nx:1\n'O''Neil':2\ny:3\n").quote()).isEqualTo('\'');
+  }
+
+  @Test
+  void takesBackslashesThatOnlyProtectSpecialCharactersAsEscapes() {
+    // Python's csv.writer with escapechar='\\' writes O\'Neil and back\\slash: every
+    // backslash stands before the quote character or another backslash.
+    Dialect d = detect("a;b\n1;O\\'Neil\n2;back\\\\slash\n3;plain\n");
+    assertThat(d).isEqualTo(new Dialect(';', '\'', Escape.BACKSLASH));
+  }
+
+  @Test
+  void keepsBackslashesInWindowsPathsLiteral() {
+    Dialect d = detect("id,path\n1,C:\\temp\\x.txt\n2,D:\\data\n");
+    assertThat(d.escape()).isEqualTo(Escape.DOUBLE);
+  }
 }
