@@ -55,8 +55,8 @@ public final class CsvParser {
       }
       records.add(new CsvRecord(cells, start, scan.pos));
     }
-    return new ParsedRecords(records, records.isEmpty() ? from : records.get(records.size() - 1).end(),
-        scan.truncated, scan.irregularities, scan.quotedFields, scan.escapes,
+    int end = records.isEmpty() ? from : records.get(records.size() - 1).end();
+    return new ParsedRecords(records, end, scan.truncated, scan.irregularities, scan.quotedFields, scan.escapes,
         scan.specialEscapes, scan.counts());
   }
 
@@ -128,6 +128,7 @@ public final class CsvParser {
     private int quotedFields;
     private int escapes;
     private int specialEscapes;
+    private final int[] countsAtRecordStart = new int[4];
     private long lf;
     private long crlf;
     private long cr;
@@ -158,6 +159,10 @@ public final class CsvParser {
     /** Reads one record from {@code pos}; null when the text ends before the record does. */
     List<String> record() {
       int restart = pos;
+      countsAtRecordStart[0] = irregularities;
+      countsAtRecordStart[1] = quotedFields;
+      countsAtRecordStart[2] = escapes;
+      countsAtRecordStart[3] = specialEscapes;
       List<String> cells = build ? new ArrayList<>() : null;
       fields = 0;
       while (true) {
@@ -196,9 +201,14 @@ public final class CsvParser {
       return cells == null ? List.of() : cells;
     }
 
+    /** Forgets a record cut by the end of a sample, and what was counted in it. */
     private List<String> abandon(int restart) {
       truncated = true;
       pos = restart;
+      irregularities = countsAtRecordStart[0];
+      quotedFields = countsAtRecordStart[1];
+      escapes = countsAtRecordStart[2];
+      specialEscapes = countsAtRecordStart[3];
       return null;
     }
 

@@ -141,6 +141,24 @@ class CsvParserTest {
   }
 
   @Test
+  void forgetsWhatItCountedInARecordCutByTheEndOfASample() {
+    ParsedRecords parsed = rfc.parse("a,b\n\"x\"y,\"open", 0, 10, false);
+    assertThat(parsed.records()).hasSize(1);
+    assertThat(parsed.irregularities()).isZero();
+    assertThat(parsed.quotedFields()).isZero();
+  }
+
+  @Test
+  void countsQuotedFieldsAndNeededEscapes() {
+    CsvParser parser = new CsvParser(new Dialect(',', '"', Escape.BACKSLASH));
+    ParsedRecords parsed = parser.parse("\"a\\\"b\",c\\d,e\\,f\n", 0, 10, true);
+    assertThat(parsed.records().get(0).cells()).containsExactly("a\"b", "cd", "e,f");
+    assertThat(parsed.quotedFields()).isEqualTo(1);
+    assertThat(parsed.escapes()).isEqualTo(3);
+    assertThat(parsed.specialEscapes()).isEqualTo(2); // \" and \, but not \d
+  }
+
+  @Test
   void leavesOutALastLineWithoutTerminatorInASample() {
     ParsedRecords parsed = rfc.parse("a,b\n1,2", 0, 10, false);
     assertThat(parsed.records()).hasSize(1);
