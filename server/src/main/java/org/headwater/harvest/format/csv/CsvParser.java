@@ -42,11 +42,20 @@ public final class CsvParser {
    *     the end of the text may continue beyond it and is left out
    */
   public ParsedRecords parse(CharSequence text, int from, int maxRecords, boolean endOfFile) {
-    Scan scan = new Scan(text, from, endOfFile, true);
+    return parse(text, from, text.length(), maxRecords, endOfFile);
+  }
+
+  /**
+   * Splits records of {@code text[from, to)}; offsets in the result are offsets in
+   * {@code text}. With {@code endOfFile} false, {@code to} is treated as the cut of a sample.
+   */
+  public ParsedRecords parse(CharSequence text, int from, int to, int maxRecords,
+      boolean endOfFile) {
+    Scan scan = new Scan(text, from, to, endOfFile, true);
     List<CsvRecord> records = new ArrayList<>();
     while (records.size() < maxRecords) {
       int start = scan.skipBlankLines();
-      if (start >= text.length()) {
+      if (start >= to) {
         break;
       }
       List<String> cells = scan.record();
@@ -65,7 +74,7 @@ public final class CsvParser {
    * building cells, and remembers where the last {@code keepLast} of them start.
    */
   public RecordCount count(CharSequence text, int from, int keepLast) {
-    Scan scan = new Scan(text, from, true, false);
+    Scan scan = new Scan(text, from, text.length(), true, false);
     long records = 0;
     int[] lastStarts = new int[Math.max(keepLast, 0)];
     while (true) {
@@ -90,13 +99,13 @@ public final class CsvParser {
    * The cell count of each complete record from the start of {@code text}, without building
    * cells: enough for the pattern score, and several times cheaper than {@link #parse}.
    */
-  public int[] widths(CharSequence text, int maxRecords, boolean endOfFile) {
-    Scan scan = new Scan(text, 0, endOfFile, false);
+  public int[] widths(CharSequence text, int from, int to, int maxRecords, boolean endOfFile) {
+    Scan scan = new Scan(text, from, to, endOfFile, false);
     int[] widths = new int[64];
     int n = 0;
     while (n < maxRecords) {
       int start = scan.skipBlankLines();
-      if (start >= text.length() || scan.record() == null) {
+      if (start >= to || scan.record() == null) {
         break;
       }
       if (n == widths.length) {
@@ -133,9 +142,9 @@ public final class CsvParser {
     private long crlf;
     private long cr;
 
-    Scan(CharSequence text, int from, boolean endOfFile, boolean build) {
+    Scan(CharSequence text, int from, int to, boolean endOfFile, boolean build) {
       this.text = text;
-      this.end = text.length();
+      this.end = to;
       this.pos = from;
       this.endOfFile = endOfFile;
       this.build = build;

@@ -73,14 +73,13 @@ public final class CsvSniffer {
 
       LeadingLines leading = LayoutDetector.leading(text);
       int sampleEnd = (int) Math.min(text.length(), (long) leading.offset() + limits.scoringChars());
-      String sample = text.substring(leading.offset(), sampleEnd);
-      if (sample.isBlank()) {
+      if (isBlank(text, leading.offset(), sampleEnd)) {
         throw new NotDelimitedTextException(NotDelimitedTextException.Reason.EMPTY,
             "no table: only blank or comment lines");
       }
       boolean sampleAtEnd = decodedAll && sampleEnd == text.length();
-      DialectScore best = DialectDetector.detect(sample, sampleAtEnd, limits.scoringRows(),
-          leading.forcedDelimiter());
+      DialectScore best = DialectDetector.detect(text, leading.offset(), sampleEnd, sampleAtEnd,
+          limits.scoringRows(), leading.forcedDelimiter());
       Dialect dialect = best.dialect();
       List<CsvRecord> scored = best.parsed().records();
       if (scored.isEmpty()) {
@@ -91,11 +90,15 @@ public final class CsvSniffer {
 
       NumberFormat numbers = NumberFormatDetector.detect(
           scored.subList(Math.min(1, scored.size()), scored.size()), dialect.delimiter());
-      TableLayout layout = TableLocator.locate(text, leading.offset(), scored, width,
-          numbers.convention(), warnings);
+      TableLayout layout = TableLocator.locate(text, scored, width, numbers.convention(),
+          warnings);
 
+      // When the scored sample is all the decoded text, its records are the data rows too.
+      boolean scoredAll = sampleEnd == text.length() && scored.size() < limits.scoringRows()
+          && scored.size() < limits.profileRows();
+      List<CsvRecord> parsedRows = scoredAll ? recordsFrom(scored, layout.dataStart()) : null;
       DataRows data = dataRows(new CsvParser(dialect), text, layout, encoding,
-          decodedAll, decodeEnd - bom);
+          decodedAll, decodeEnd - bom, parsedRows);
       warnRagged(data.profiled(), width);
       if (best.parsed().irregularities() > 0) {
         warnings.add(best.parsed().irregularities() + " field(s) break the quoting rules of "
@@ -135,9 +138,10 @@ public final class CsvSniffer {
      * longer than the profile limit, by estimate from a head.
      */
     private DataRows dataRows(CsvParser parser, String text, TableLayout layout,
-        DetectedEncoding encoding, boolean decodedAll, int decodedBytes) {
-      List<CsvRecord> rows =
-          parser.parse(text, layout.dataStart(), limits.profileRows(), decodedAll).records();
+        DetectedEncoding encoding, boolean decodedAll, int decodedBytes,
+        List<CsvRecord> parsedRows) {
+      List<CsvRecord> rows = parsedRows != null ? parsedRows
+          : parser.parse(text, layout.dataStart(), limits.profileRows(), decodedAll).records();
       if (decodedAll && rows.size() < limits.profileRows()) {
         int footer = LayoutDetector.footerRecords(rows, layout.width(), -1);
         List<CsvRecord> profiled = rows.subList(0, rows.size() - footer);
@@ -164,6 +168,23 @@ public final class CsvSniffer {
         throw new NotDelimitedTextException(NotDelimitedTextException.Reason.BINARY,
             "control characters in " + controls + " of " + text.length() + " characters");
       }
+    }
+
+    private static boolean isBlank(String text, int from, int to) {
+      for (int i = from; i < to; i++) {
+        if (!Character.isWhitespace(text.charAt(i))) {
+          return false;
+        }
+      }
+      return true;
+    }
+
+    private static List<CsvRecord> recordsFrom(List<CsvRecord> records, int offset) {
+      int i = 0;
+      while (i < records.size() && records.get(i).start() < offset) {
+        i++;
+      }
+      return records.subList(i, records.size());
     }
 
     private void warnRagged(List<CsvRecord> rows, int width) {

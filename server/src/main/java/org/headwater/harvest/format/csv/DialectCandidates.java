@@ -21,9 +21,14 @@ final class DialectCandidates {
    * @param forcedDelimiter a delimiter fixed by a {@code sep=} line, or 0
    */
   static List<Dialect> of(CharSequence sample, char forcedDelimiter) {
+    return of(sample, 0, sample.length(), forcedDelimiter);
+  }
+
+  /** The candidates for {@code text[from, to)}. */
+  static List<Dialect> of(CharSequence text, int from, int to, char forcedDelimiter) {
     boolean[] seen = new boolean[128];
-    for (int i = 0, n = sample.length(); i < n; i++) {
-      char c = sample.charAt(i);
+    for (int i = from; i < to; i++) {
+      char c = text.charAt(i);
       if (c < 128) {
         seen[c] = true;
       }

@@ -28,11 +28,17 @@ final class DialectDetector {
 
   static DialectScore detect(CharSequence sample, boolean endOfFile, int maxRows,
       char forcedDelimiter) {
+    return detect(sample, 0, sample.length(), endOfFile, maxRows, forcedDelimiter);
+  }
+
+  /** Detects the dialect of {@code text[from, to)}; record offsets are offsets in text. */
+  static DialectScore detect(CharSequence text, int from, int to, boolean endOfFile,
+      int maxRows, char forcedDelimiter) {
     List<DialectScore> scores = new ArrayList<>();
     double best = 0.0;
-    for (Dialect dialect : DialectCandidates.of(sample, forcedDelimiter)) {
+    for (Dialect dialect : DialectCandidates.of(text, from, to, forcedDelimiter)) {
       // Pruning on P alone is only safe strictly below the best: an equal P may tie.
-      DialectScore score = DialectScorer.score(sample, endOfFile, maxRows, dialect,
+      DialectScore score = DialectScorer.score(text, from, to, endOfFile, maxRows, dialect,
           best * (1 - TIE));
       scores.add(score);
       best = Math.max(best, score.consistency());
@@ -49,7 +55,7 @@ final class DialectDetector {
             .thenComparingInt(s -> DialectCandidates.escapeRank(s.dialect().escape())))
         .orElseThrow();
     Dialect dialect = chosen.dialect();
-    if (dialect.quote() == null && dialect.delimiter() != '"' && !contains(sample, '"')) {
+    if (dialect.quote() == null && dialect.delimiter() != '"' && !contains(text, from, to, '"')) {
       Escape escape = dialect.escape() == Escape.BACKSLASH ? Escape.BACKSLASH : Escape.DOUBLE;
       return new DialectScore(new Dialect(dialect.delimiter(), '"', escape), chosen.pattern(),
           chosen.type(), chosen.consistency(), chosen.parsed());
@@ -71,8 +77,8 @@ final class DialectDetector {
     return parsed.escapes() > 0 && parsed.escapes() == parsed.specialEscapes() ? 0 : 2;
   }
 
-  private static boolean contains(CharSequence text, char c) {
-    for (int i = 0, n = text.length(); i < n; i++) {
+  private static boolean contains(CharSequence text, int from, int to, char c) {
+    for (int i = from; i < to; i++) {
       if (text.charAt(i) == c) {
         return true;
       }

@@ -32,12 +32,18 @@ final class DialectScorer {
    */
   static DialectScore score(CharSequence sample, boolean endOfFile, int maxRows,
       Dialect dialect, double bestSoFar) {
+    return score(sample, 0, sample.length(), endOfFile, maxRows, dialect, bestSoFar);
+  }
+
+  /** Scores {@code dialect} on {@code text[from, to)}. */
+  static DialectScore score(CharSequence text, int from, int to, boolean endOfFile,
+      int maxRows, Dialect dialect, double bestSoFar) {
     CsvParser parser = new CsvParser(dialect);
-    double p = patternScore(parser.widths(sample, maxRows, endOfFile));
+    double p = patternScore(parser.widths(text, from, to, maxRows, endOfFile));
     if (p < bestSoFar) {
       return new DialectScore(dialect, p, Double.NaN, 0.0, null);
     }
-    ParsedRecords parsed = parser.parse(sample, 0, maxRows, endOfFile);
+    ParsedRecords parsed = parser.parse(text, from, to, maxRows, endOfFile);
     double t = typeScore(parsed.records());
     return new DialectScore(dialect, p, t, p * t, parsed);
   }

@@ -16,10 +16,9 @@ final class TableLocator {
 
   /**
    * @param text the decoded text
-   * @param offset where the scored sample starts in the text (record offsets are relative)
-   * @param records the sample's records under the chosen dialect
+   * @param records the sample's records under the chosen dialect, with offsets in text
    */
-  static TableLayout locate(String text, int offset, List<CsvRecord> records, int width,
+  static TableLayout locate(String text, List<CsvRecord> records, int width,
       NumberConvention convention, List<String> warnings) {
     int first = LayoutDetector.preambleRecords(records, width);
     boolean header = false;
@@ -33,7 +32,7 @@ final class TableLocator {
       header = role == RowRole.HEADER;
       break;
     }
-    int tableStart = first < records.size() ? offset + records.get(first).start() : text.length();
+    int tableStart = first < records.size() ? records.get(first).start() : text.length();
     int skipLines = LayoutDetector.physicalLines(text, tableStart);
     if (!header) {
       return new TableLayout(width, false, skipLines, tableStart, ColumnNames.generated(width));
@@ -42,7 +41,7 @@ final class TableLocator {
     if (headerRecord.width() > width) {
       warnings.add("header has " + headerRecord.width() + " names for " + width + " columns");
     }
-    return new TableLayout(width, true, skipLines, offset + headerRecord.end(),
+    return new TableLayout(width, true, skipLines, headerRecord.end(),
         ColumnNames.fromHeader(headerRecord.cells(), width));
   }
 }
