@@ -48,12 +48,44 @@ final class KnownTypes {
     if (from >= to) {
       return false;
     }
+    // One pass finds the separators present; only conventions that explain all of them are
+    // scanned (the scan would reject the others anyway), and most cells need one scan.
+    boolean dot = false;
+    boolean comma = false;
+    boolean space = false;
+    boolean apostrophe = false;
+    for (int i = from; i < to; i++) {
+      char c = s.charAt(i);
+      switch (c) {
+        case '.' -> dot = true;
+        case ',' -> comma = true;
+        case ' ', '\u00A0', '\u202F' -> space = true;
+        case '\'' -> apostrophe = true;
+        case '+', '-', 'e', 'E' -> { }
+        default -> {
+          if (!NumberScanner.isDigit(c)) {
+            return false;
+          }
+        }
+      }
+    }
     for (NumberConvention convention : NumberConvention.CANDIDATES) {
-      if (NumberScanner.scan(s, from, to, convention) != NumberScanner.NONE) {
+      if (explains(convention, dot, comma, space, apostrophe)
+          && NumberScanner.scan(s, from, to, convention) != NumberScanner.NONE) {
         return true;
       }
     }
     return false;
+  }
+
+  private static boolean explains(NumberConvention convention, boolean dot, boolean comma,
+      boolean space, boolean apostrophe) {
+    char decimal = convention.decimal();
+    Character group = convention.group();
+    return (!dot || decimal == '.' || group != null && group == '.')
+        && (!comma || decimal == ',' || group != null && group == ',')
+        && (!space || group != null && group == ' ')
+        && (!apostrophe || group != null && group == '\'');
   }
 
   private static boolean isUrl(CharSequence s, int from, int to) {
