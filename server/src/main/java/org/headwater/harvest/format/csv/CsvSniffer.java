@@ -119,9 +119,16 @@ public final class CsvSniffer {
     /** The modal record width, refusing text whose records have no steady width. */
     private int steadyWidth(List<CsvRecord> records) throws NotDelimitedTextException {
       int width = LayoutDetector.modalWidth(records);
+      // Prose split at spaces or commas has no steady width: refused when under half the
+      // records have the modal width, unless the records from the first one of that width on
+      // (the table after a long preamble) mostly have it (thresholds: our choice).
+      int first = 0;
+      while (records.get(first).width() != width) {
+        first++;
+      }
       double share = LayoutDetector.shareOfWidth(records, width);
-      // Half the rows at one width: below that it is prose or a log, not a table (our choice).
-      if (records.size() >= 5 && width > 1 && share < 0.5) {
+      double tableShare = LayoutDetector.shareOfWidth(records.subList(first, records.size()), width);
+      if (records.size() >= 5 && width > 1 && share < 0.5 && tableShare < 0.8) {
         throw new NotDelimitedTextException(NotDelimitedTextException.Reason.NOT_TABULAR,
             "no steady row width: " + width + " cells in only " + Math.round(100 * share)
                 + "% of rows");

@@ -40,12 +40,15 @@ final class LayoutDetector {
     return new LeadingLines(offset, forced, comments);
   }
 
-  /** The most frequent record width; the wider wins a tie. */
+  /**
+   * The most frequent record width in the second half of the records (a preamble, however
+   * long, sits in the first); the wider wins a tie.
+   */
   static int modalWidth(List<CsvRecord> records) {
     Map<Integer, Integer> counts = new HashMap<>();
     int best = 0;
     int bestCount = 0;
-    for (CsvRecord record : records) {
+    for (CsvRecord record : records.subList(records.size() / 2, records.size())) {
       int count = counts.merge(record.width(), 1, Integer::sum);
       if (count > bestCount || count == bestCount && record.width() > best) {
         best = record.width();

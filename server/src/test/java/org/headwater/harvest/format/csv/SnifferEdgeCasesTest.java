@@ -68,6 +68,19 @@ class SnifferEdgeCasesTest {
   }
 
   @Test
+  void acceptsAPreambleLongerThanTheTable() throws Exception {
+    StringBuilder b = new StringBuilder();
+    for (int i = 1; i <= 10; i++) {
+      b.append("Note ").append(i).append(": invented remarks about the survey\n");
+    }
+    b.append("site,count\nA,1\nB,2\nC,3\nD,4\n");
+    CsvSniff s = sniff(b.toString());
+    assertThat(s.skipLines()).isEqualTo(10);
+    assertThat(s.header()).isTrue();
+    assertThat(s.rowCount()).isEqualTo(4);
+  }
+
+  @Test
   void skipsHashCommentLinesBeforeTheTable() throws Exception {
     CsvSniff s = sniff("# source: invented\n# units: metres\nx|y\n1|2\n3|4\n");
     assertThat(s.skipLines()).isEqualTo(2);
