@@ -35,7 +35,8 @@ final class ColumnTypeInference {
     boolean numericStart = NumberScanner.isDigit(c) || c == '-' || c == '+' || c == '.'
         || c == convention.decimal();
     if (integer || decimal) {
-      int result = numericStart ? NumberScanner.scan(raw, from, to, convention) : NumberScanner.NONE;
+      int result = numericStart
+          ? NumberScanner.scan(raw, from, to, convention) : NumberScanner.NONE;
       if (result == NumberScanner.NONE || NumberScanner.has(result, NumberScanner.LEADING_ZERO)) {
         integer = false;
         decimal = false;

@@ -65,7 +65,8 @@ public final class CsvParser {
       records.add(new CsvRecord(cells, start, scan.pos));
     }
     int end = records.isEmpty() ? from : records.get(records.size() - 1).end();
-    return new ParsedRecords(records, end, scan.truncated, scan.irregularities, scan.quotedFields, scan.escapes,
+    return new ParsedRecords(records, end, scan.truncated, scan.irregularities,
+        scan.quotedFields, scan.escapes,
         scan.specialEscapes, scan.counts());
   }
 

@@ -72,7 +72,8 @@ public final class CsvSniffer {
       rejectBinary(text);
 
       LeadingLines leading = LayoutDetector.leading(text);
-      int sampleEnd = (int) Math.min(text.length(), (long) leading.offset() + limits.scoringChars());
+      int sampleEnd =
+          (int) Math.min(text.length(), (long) leading.offset() + limits.scoringChars());
       if (isBlank(text, leading.offset(), sampleEnd)) {
         throw new NotDelimitedTextException(NotDelimitedTextException.Reason.EMPTY,
             "no table: only blank or comment lines");
@@ -127,7 +128,8 @@ public final class CsvSniffer {
         first++;
       }
       double share = LayoutDetector.shareOfWidth(records, width);
-      double tableShare = LayoutDetector.shareOfWidth(records.subList(first, records.size()), width);
+      double tableShare =
+          LayoutDetector.shareOfWidth(records.subList(first, records.size()), width);
       if (records.size() >= 5 && width > 1 && share < 0.5 && tableShare < 0.8) {
         throw new NotDelimitedTextException(NotDelimitedTextException.Reason.NOT_TABULAR,
             "no steady row width: " + width + " cells in only " + Math.round(100 * share)

@@ -6,8 +6,8 @@ package org.headwater.harvest.format.csv;
  * token, a number in any common notation (decimal comma, digit groups, sign, exponent,
  * percent, currency symbol), a date, time or timestamp, a boolean, a URL or an e-mail
  * address. Written from our reading of the paper, from memory; their exact list of types may
- * differ (we recognise, for instance, no IP addresses or file paths). Plain words are not known types: the
- * score rewards dialects whose cells are values rather than fragments.
+ * differ (we recognise, for instance, no IP addresses or file paths). Plain words are not
+ * known types: the score rewards dialects whose cells are values rather than fragments.
  */
 final class KnownTypes {
 

@@ -82,8 +82,10 @@ final class TemporalPattern {
     }
     char sep = firstShape.dateSeparator();
     String[] letters = switch (order()) {
-      case TemporalShape.YMD -> new String[] {"yyyy", field('M', minWidth[1]), field('d', minWidth[2])};
-      case TemporalShape.DMY -> new String[] {field('d', minWidth[0]), field('M', minWidth[1]), "yyyy"};
+      case TemporalShape.YMD ->
+          new String[] {"yyyy", field('M', minWidth[1]), field('d', minWidth[2])};
+      case TemporalShape.DMY ->
+          new String[] {field('d', minWidth[0]), field('M', minWidth[1]), "yyyy"};
       default -> new String[] {field('M', minWidth[0]), field('d', minWidth[1]), "yyyy"};
     };
     StringBuilder p = new StringBuilder()

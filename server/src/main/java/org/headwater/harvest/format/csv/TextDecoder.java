@@ -23,7 +23,8 @@ final class TextDecoder {
         .onMalformedInput(CodingErrorAction.REPLACE)
         .onUnmappableCharacter(CodingErrorAction.REPLACE);
     ByteBuffer in = ByteBuffer.wrap(bytes, from, to - from);
-    CharBuffer out = CharBuffer.allocate((int) Math.ceil((to - from) * (double) decoder.maxCharsPerByte()) + 4);
+    int capacity = (int) Math.ceil((to - from) * (double) decoder.maxCharsPerByte()) + 4;
+    CharBuffer out = CharBuffer.allocate(capacity);
     decoder.decode(in, out, endOfInput);
     if (endOfInput) {
       decoder.flush(out);
