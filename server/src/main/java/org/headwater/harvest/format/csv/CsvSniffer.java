@@ -1,0 +1,209 @@
+package org.headwater.harvest.format.csv;
+
+import java.nio.charset.Charset;
+import java.util.ArrayList;
+import java.util.List;
+
+/**
+ * Detects everything {@link CsvSniff} holds from the head (or all) of a delimited text file.
+ * Safe to share between threads: it keeps no state between calls.
+ */
+public final class CsvSniffer {
+
+  private final SniffLimits limits;
+  private final EncodingDetector encodingDetector = new EncodingDetector();
+
+  public CsvSniffer() {
+    this(SniffLimits.DEFAULT);
+  }
+
+  public CsvSniffer(SniffLimits limits) {
+    this.limits = limits;
+  }
+
+  /**
+   * Sniffs a file.
+   *
+   * @param head the first bytes of the file, or all of them
+   * @param wholeFile whether {@code head} is the complete file (then the row count is exact)
+   * @param fileSize the file's size in bytes, used to estimate the row count from a partial
+   *     head; negative when unknown
+   * @throws NotDelimitedTextException when the bytes are empty, binary or not a table; also,
+   *     rather than any unchecked exception, when the detector itself fails
+   */
+  public CsvSniff sniff(byte[] head, boolean wholeFile, long fileSize)
+      throws NotDelimitedTextException {
+    if (head == null) {
+      throw new NotDelimitedTextException(NotDelimitedTextException.Reason.EMPTY, "no bytes");
+    }
+    try {
+      return new Run(head, wholeFile || fileSize >= 0 && fileSize == head.length, fileSize).sniff();
+    } catch (RuntimeException | StackOverflowError e) {
+      throw new NotDelimitedTextException(NotDelimitedTextException.Reason.UNEXPECTED,
+          "detector failure: " + e, e);
+    }
+  }
+
+  /** The state of one sniff. */
+  private final class Run {
+    private final byte[] head;
+    private final boolean complete;
+    private final long fileSize;
+    private final List<String> warnings = new ArrayList<>();
+
+    Run(byte[] head, boolean complete, long fileSize) {
+      this.head = head;
+      this.complete = complete;
+      this.fileSize = fileSize;
+    }
+
+    CsvSniff sniff() throws NotDelimitedTextException {
+      DetectedEncoding encoding = encodingDetector.detect(head, complete);
+      if (encoding.basis() == DetectedEncoding.Basis.STATISTICAL
+          || encoding.basis() == DetectedEncoding.Basis.FALLBACK) {
+        warnings.add("encoding " + encoding.charset().name().toLowerCase(java.util.Locale.ROOT)
+            + " is a guess (" + encoding.basis().name().toLowerCase(java.util.Locale.ROOT) + ")");
+      }
+      Charset charset = encoding.charset();
+      int bom = encoding.bomLength();
+      int decodeEnd = (int) Math.min(head.length, (long) bom + limits.profileBytes());
+      boolean decodedAll = complete && decodeEnd == head.length;
+      String text = TextDecoder.decode(head, bom, decodeEnd, charset, decodedAll);
+      rejectBinary(text);
+
+      LeadingLines leading = LayoutDetector.leading(text);
+      int sampleEnd =
+          (int) Math.min(text.length(), (long) leading.offset() + limits.scoringChars());
+      if (isBlank(text, leading.offset(), sampleEnd)) {
+        throw new NotDelimitedTextException(NotDelimitedTextException.Reason.EMPTY,
+            "no table: only blank or comment lines");
+      }
+      boolean sampleAtEnd = decodedAll && sampleEnd == text.length();
+      DialectScore best = DialectDetector.detect(text, leading.offset(), sampleEnd, sampleAtEnd,
+          limits.scoringRows(), leading.forcedDelimiter());
+      Dialect dialect = best.dialect();
+      List<CsvRecord> scored = best.parsed().records();
+      if (scored.isEmpty()) {
+        throw new NotDelimitedTextException(NotDelimitedTextException.Reason.NOT_TABULAR,
+            "no complete record in the sample");
+      }
+      int width = steadyWidth(scored);
+
+      NumberFormat numbers = NumberFormatDetector.detect(
+          scored.subList(Math.min(1, scored.size()), scored.size()), dialect.delimiter());
+      TableLayout layout = TableLocator.locate(text, scored, width, numbers.convention(),
+          warnings);
+
+      // When the scored sample is all the decoded text, its records are the data rows too.
+      boolean scoredAll = sampleEnd == text.length() && scored.size() < limits.scoringRows()
+          && scored.size() < limits.profileRows();
+      List<CsvRecord> parsedRows = scoredAll ? recordsFrom(scored, layout.dataStart()) : null;
+      DataRows data = dataRows(new CsvParser(dialect), text, layout, encoding,
+          decodedAll, decodeEnd - bom, parsedRows);
+      warnRagged(data.profiled(), width);
+      if (best.parsed().irregularities() > 0) {
+        warnings.add(best.parsed().irregularities() + " field(s) break the quoting rules of "
+            + "RFC 4180 and were read leniently");
+      }
+      TerminatorCounts terminators = best.parsed().terminators();
+      if (terminators.mixed()) {
+        warnings.add("mixed line terminators: " + terminators);
+      }
+      List<ColumnProfile> columns = ColumnProfiler.profile(layout.names(), data.profiled(),
+          numbers.convention(), warnings);
+      return new CsvSniff(charset, encoding.bom(), dialect, terminators.dominant(),
+          layout.header(), layout.skipLines(), data.footer(), numbers.convention().decimal(),
+          numbers.thousandsSeparator(), columns, data.rowCount(), complete,
+          data.profiled().size(), warnings);
+    }
+
+    /** The modal record width, refusing text whose records have no steady width. */
+    private int steadyWidth(List<CsvRecord> records) throws NotDelimitedTextException {
+      int width = LayoutDetector.modalWidth(records);
+      // Prose split at spaces or commas has no steady width: refused when under half the
+      // records have the modal width, unless the records from the first one of that width on
+      // (the table after a long preamble) mostly have it (thresholds: our choice).
+      int first = 0;
+      while (records.get(first).width() != width) {
+        first++;
+      }
+      double share = LayoutDetector.shareOfWidth(records, width);
+      double tableShare =
+          LayoutDetector.shareOfWidth(records.subList(first, records.size()), width);
+      if (records.size() >= 5 && width > 1 && share < 0.5 && tableShare < 0.8) {
+        throw new NotDelimitedTextException(NotDelimitedTextException.Reason.NOT_TABULAR,
+            "no steady row width: " + width + " cells in only " + Math.round(100 * share)
+                + "% of rows");
+      }
+      if (width == 1) {
+        warnings.add("one column: no delimiter found");
+      }
+      return width;
+    }
+
+    /**
+     * Parses the data rows to profile and counts all of them: from the rows themselves when
+     * the text holds the whole file, by a cell-free scan of the bytes when the whole file is
+     * longer than the profile limit, by estimate from a head.
+     */
+    private DataRows dataRows(CsvParser parser, String text, TableLayout layout,
+        DetectedEncoding encoding, boolean decodedAll, int decodedBytes,
+        List<CsvRecord> parsedRows) {
+      List<CsvRecord> rows = parsedRows != null ? parsedRows
+          : parser.parse(text, layout.dataStart(), limits.profileRows(), decodedAll).records();
+      if (decodedAll && rows.size() < limits.profileRows()) {
+        int footer = LayoutDetector.footerRecords(rows, layout.width(), -1);
+        List<CsvRecord> profiled = rows.subList(0, rows.size() - footer);
+        return new DataRows(profiled, profiled.size(), footer);
+      }
+      if (complete) {
+        RowCounter.Tally tally = RowCounter.countWholeFile(head, encoding.bomLength(),
+            encoding.charset(), text, layout.dataStart(), parser, layout.width());
+        return new DataRows(rows, tally.records() - tally.footer(), tally.footer());
+      }
+      return new DataRows(rows, RowCounter.estimate(rows, text, layout.dataStart(), decodedBytes,
+          encoding.bomLength(), fileSize, warnings), 0);
+    }
+
+    private void rejectBinary(String text) throws NotDelimitedTextException {
+      int controls = 0;
+      for (int i = 0, n = text.length(); i < n; i++) {
+        char c = text.charAt(i);
+        if (c < 0x20 && c != '\t' && c != '\n' && c != '\r' && c != '\f' || c == 0x7F) {
+          controls++;
+        }
+      }
+      if (controls > 0 && controls * 100L > text.length()) {
+        throw new NotDelimitedTextException(NotDelimitedTextException.Reason.BINARY,
+            "control characters in " + controls + " of " + text.length() + " characters");
+      }
+    }
+
+    private static boolean isBlank(String text, int from, int to) {
+      for (int i = from; i < to; i++) {
+        if (!Character.isWhitespace(text.charAt(i))) {
+          return false;
+        }
+      }
+      return true;
+    }
+
+    private static List<CsvRecord> recordsFrom(List<CsvRecord> records, int offset) {
+      int i = 0;
+      while (i < records.size() && records.get(i).start() < offset) {
+        i++;
+      }
+      return records.subList(i, records.size());
+    }
+
+    private void warnRagged(List<CsvRecord> rows, int width) {
+      long ragged = rows.stream().filter(r -> r.width() != width).count();
+      if (ragged > 0) {
+        warnings.add(ragged + " data row(s) do not have " + width + " cells");
+      }
+    }
+  }
+
+  /** The rows profiled, the data rows counted, and the footer records left out. */
+  private record DataRows(List<CsvRecord> profiled, long rowCount, int footer) {}
+}
