@@ -197,10 +197,27 @@ public final class JsonRecordsReader implements FormatReader {
             if (node.isNumber()) {
                 return "decimal";
             }
-            String guessed = ValueTypes.guess(List.of(node.asText()));
-            // Inside JSON a quoted "12" is still a string; only dates and times are read out of strings.
-            return guessed.equals("date") || guessed.equals("timestamp") ? guessed : "text";
+            // Inside JSON a quoted "12" is still a string; only ISO-8601 dates and times are read out of strings.
+            return isoTemporal(node.asText());
         }
     }
 
+
+    /** {@code date} or {@code timestamp} for ISO-8601 text (RFC 3339 profile), else {@code text}. */
+    static String isoTemporal(String text) {
+        // Cheap shape test first: parsing every string with java.time would throw far too often.
+        if (text.length() < 10 || text.length() > 35 || !Character.isDigit(text.charAt(0)) || text.charAt(4) != '-') {
+            return "text";
+        }
+        try {
+            if (text.length() == 10) {
+                java.time.LocalDate.parse(text);
+                return "date";
+            }
+            java.time.temporal.TemporalAccessor t = java.time.format.DateTimeFormatter.ISO_DATE_TIME.parse(text);
+            return t != null ? "timestamp" : "text";
+        } catch (java.time.format.DateTimeParseException e) {
+            return "text";
+        }
+    }
 }
