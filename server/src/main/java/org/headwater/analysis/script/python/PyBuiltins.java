@@ -8,6 +8,7 @@ import java.util.Optional;
 import org.headwater.analysis.script.io.CallArgs;
 import org.headwater.analysis.script.value.Dialect;
 import org.headwater.analysis.script.value.Rendered;
+import org.headwater.analysis.script.value.PathText;
 import org.headwater.analysis.script.value.Value;
 import org.headwater.analysis.script.value.Value.Text;
 import org.headwater.analysis.script.value.Values;

@@ -19,6 +19,7 @@ import org.headwater.analysis.script.lineage.Frame;
 import org.headwater.analysis.script.lineage.Origin;
 import org.headwater.analysis.script.syntax.Node;
 import org.headwater.analysis.script.value.Dialect;
+import org.headwater.analysis.script.value.PathText;
 import org.headwater.analysis.script.value.Value;
 import org.headwater.analysis.script.value.Value.Obj;
 import org.headwater.analysis.script.value.Values;

@@ -1,19 +1,17 @@
-package org.headwater.analysis.script.python;
+package org.headwater.analysis.script.value;
 
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Optional;
-import org.headwater.analysis.script.value.Piece;
 import org.headwater.analysis.script.value.Value.Text;
-import org.headwater.analysis.script.value.Values;
 
 /** Path operations on text values that may hold holes: join, parent, name. */
-final class PathText {
+public final class PathText {
     private PathText() {
     }
 
     /** Joins parts with {@code /}; an absolute part starts over. // reference: Python 3 os.path.join */
-    static Text join(List<Text> parts) {
+    public static Text join(List<Text> parts) {
         Text out = null;
         for (Text part : parts) {
             Optional<String> first = firstLiteral(part);
@@ -29,7 +27,7 @@ final class PathText {
     }
 
     /** Everything before the last {@code /}; empty when there is none. // reference: Python 3 os.path.dirname */
-    static Optional<Text> parent(Text t) {
+    public static Optional<Text> parent(Text t) {
         List<Piece> pieces = t.pieces();
         for (int i = pieces.size() - 1; i >= 0; i--) {
             Piece p = pieces.get(i);
@@ -50,7 +48,7 @@ final class PathText {
     }
 
     /** The last part after {@code /}. */
-    static Optional<Text> name(Text t) {
+    public static Optional<Text> name(Text t) {
         List<Piece> pieces = t.pieces();
         for (int i = pieces.size() - 1; i >= 0; i--) {
             if (pieces.get(i) instanceof Piece.Gap) {
@@ -70,7 +68,7 @@ final class PathText {
     }
 
     /** The path with its last suffix replaced. */
-    static Optional<Text> withSuffix(Text t, String suffix) {
+    public static Optional<Text> withSuffix(Text t, String suffix) {
         Optional<String> whole = Values.constant(t);
         if (whole.isEmpty()) {
             return Optional.empty();
