@@ -50,12 +50,13 @@ public final class ScriptAnalyzer {
         List<CodePiece> pieces = pieces(name, language, text);
         Findings findings = new Findings();
         List<ScriptInvocation> invocations = ctx.invocationsOf(rel);
-        boolean notebook = language == Language.NOTEBOOK;
+        String lower = name.toLowerCase(Locale.ROOT);
+        boolean document = language == Language.NOTEBOOK || lower.endsWith(".rmd") || lower.endsWith(".qmd");
         if (invocations.isEmpty()) {
-            runOnce(pieces, setting(root, rel, ctx, notebook, null, null), findings);
+            runOnce(pieces, setting(root, rel, ctx, document, null, null), findings);
         }
         for (ScriptInvocation inv : invocations) {
-            runOnce(pieces, setting(root, rel, ctx, notebook, inv.workingDir(), inv.args()), findings);
+            runOnce(pieces, setting(root, rel, ctx, document, inv.workingDir(), inv.args()), findings);
         }
         return new ScriptAnalysis(rel, language, findings.references(), findings.flows(), List.of(), findings.warnings());
     }
@@ -69,12 +70,12 @@ public final class ScriptAnalyzer {
         };
     }
 
-    private static RunSetting setting(Path root, Path rel, AnalysisContext ctx, boolean notebook, Path driverDir, List<String> argv) {
+    private static RunSetting setting(Path root, Path rel, AnalysisContext ctx, boolean document, Path driverDir, List<String> argv) {
         Path cwd;
         if (driverDir != null) {
             cwd = root.resolve(driverDir).normalize();
         } else {
-            WorkingDirectory policy = notebook ? ctx.notebooks() : ctx.scripts();
+            WorkingDirectory policy = document ? ctx.documents() : ctx.scripts();
             Path parent = rel.getParent();
             cwd = policy == WorkingDirectory.SCRIPT_FOLDER && parent != null ? root.resolve(parent) : root;
         }

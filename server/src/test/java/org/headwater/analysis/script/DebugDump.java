@@ -2,13 +2,10 @@ package org.headwater.analysis.script;
 
 import java.nio.file.Path;
 
-/** Prints an analysis, for looking at while developing. */
+/** Prints the analysis of a whole workspace, for looking at while developing. */
 final class DebugDump {
     public static void main(String[] args) throws Exception {
-        Path root = Path.of(args[0]);
-        AnalysisContext ctx = AnalysisContext.defaults();
-        for (int i = 1; i < args.length; i++) {
-            ScriptAnalysis a = new ScriptAnalyzer().analyze(root, Path.of(args[i]), ctx);
+        for (ScriptAnalysis a : new WorkspaceAnalysis().analyze(Path.of(args[0]), AnalysisContext.defaults())) {
             System.out.println("== " + a.script() + " " + a.language());
             a.references().forEach(r -> System.out.println("  " + r.direction() + " " + r.target() + " glob=" + r.isGlob() + " " + r.instances()
                     + " " + r.function() + " L" + r.line() + ":" + r.column() + (r.cell() != null ? " cell " + r.cell() : "") + " c=" + r.confidence() + " resolved=" + r.resolved() + " [" + r.expressionText() + "]"));

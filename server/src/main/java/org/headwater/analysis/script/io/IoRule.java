@@ -33,8 +33,11 @@ public record IoRule(String function, List<String> params, String pathParam, Dir
 
     /** The last part of the name: the method or function as a call writes it. */
     public String simpleName() {
-        int cut = Math.max(function.lastIndexOf('.'), function.lastIndexOf(':'));
-        return function.substring(cut + 1);
+        int colons = function.lastIndexOf("::");
+        if (colons >= 0) {
+            return function.substring(colons + 2); // R names keep their dots: utils::read.csv
+        }
+        return function.substring(function.lastIndexOf('.') + 1);
     }
 
     /**
