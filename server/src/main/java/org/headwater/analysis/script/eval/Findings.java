@@ -21,6 +21,9 @@ public final class Findings {
     /** Records what a written frame shows of its origins. */
     public void written(DataReference target, Frame frame) {
         List<String> sources = frame.sources().stream().filter(s -> !s.equals(target.target())).toList();
+        if (sources.isEmpty()) {
+            return; // a frame made in the code from literals: no dataset flows into the write
+        }
         DatasetFlow flow = new DatasetFlow(target, sources, frame.flows(), !frame.complete());
         if (!flows.contains(flow)) {
             flows.add(flow);

@@ -146,7 +146,8 @@ final class PandasOps {
             columns.put(name, s.get().origins());
             return new Frame(f.sources(), columns, f.passThrough(), f.opaque() || s.get().unknown());
         }
-        if (v instanceof Value.Num || v instanceof Value.Text || v instanceof Value.Bool || v instanceof Value.Each) {
+        if (v instanceof Value.Num || v instanceof Value.Text || v instanceof Value.Bool || v instanceof Value.Each
+                || v instanceof Value.Items) {
             return f.assign(name, List.of(), true);
         }
         Map<String, List<Origin>> columns = new LinkedHashMap<>(f.columns());

@@ -77,11 +77,23 @@ public final class PythonEvaluator {
     }
 
     private void finish() {
-        List<Map.Entry<Node, Scope>> pending = new ArrayList<>(defined.entrySet());
-        for (Map.Entry<Node, Scope> e : pending) {
-            if (!called.contains(key(e.getKey()))) {
-                called.add(key(e.getKey()));
-                invoke(new PyObjects.Function(e.getKey(), e.getValue()), List.of(), Map.of(), true);
+        // Running an uncalled function can define more (nested functions): a few rounds reach them.
+        for (int round = 0; round < 4; round++) {
+            List<Map.Entry<Node, Scope>> pending = new ArrayList<>(defined.entrySet());
+            boolean ran = false;
+            for (Map.Entry<Node, Scope> e : pending) {
+                if (!called.contains(key(e.getKey()))) {
+                    called.add(key(e.getKey()));
+                    ran = true;
+                    if (e.getKey().is("lambda")) {
+                        invokeLambda(new PyObjects.Lambda(e.getKey(), e.getValue()), List.of());
+                    } else {
+                        invoke(new PyObjects.Function(e.getKey(), e.getValue()), List.of(), Map.of(), true);
+                    }
+                }
+            }
+            if (!ran) {
+                return;
             }
         }
     }
@@ -118,7 +130,10 @@ public final class PythonEvaluator {
                 }
             });
             case "function_definition" -> define(s, scope);
-            case "decorated_definition" -> statement(s.field("definition"), scope);
+            case "decorated_definition" -> {
+                s.named().stream().filter(n -> n.is("decorator")).forEach(d -> d.named().forEach(x -> eval(x, scope)));
+                statement(s.field("definition"), scope);
+            }
             case "class_definition" -> classDefinition(s, scope);
             case "import_statement" -> modules.importStatement(s, scope, this);
             case "import_from_statement" -> modules.importFrom(s, scope, this);
@@ -129,11 +144,14 @@ public final class PythonEvaluator {
                     returnStack.get(returnStack.size() - 1).add(v);
                 }
             }
-            case "match_statement" -> s.named().stream().filter(n -> n.is("block")).forEach(body ->
-                    body.named().forEach(c -> c.named().stream().filter(n -> n.is("block")).forEach(b -> block(b, scope))));
+            case "match_statement" -> {
+                s.fields("subject").forEach(n -> eval(n, scope));
+                s.named().stream().filter(n -> n.is("block")).forEach(body ->
+                        body.named().forEach(c -> c.named().stream().filter(n -> n.is("block")).forEach(b -> block(b, scope))));
+            }
             case "pass_statement", "break_statement", "continue_statement", "future_import_statement",
-                    "raise_statement", "assert_statement", "delete_statement", "type_alias_statement" -> {
-                // nothing to follow: raise and assert arguments seldom name files
+                    "delete_statement", "type_alias_statement" -> {
+                // nothing to follow
             }
             case "block", "module" -> block(s, scope);
             default -> s.named().forEach(n -> eval(n, scope));
@@ -356,6 +374,7 @@ public final class PythonEvaluator {
 
     /** Runs a lambda's body with its parameters bound. */
     Value invokeLambda(PyObjects.Lambda fn, List<Value> args) {
+        called.add(key(fn.node()));
         Scope local = new Scope(fn.closure());
         Node params = fn.node().field("parameters");
         if (params != null) {
@@ -397,7 +416,10 @@ public final class PythonEvaluator {
             case "attribute" -> calls.attribute(eval(e.field("object"), scope), e.field("attribute").text(), e);
             case "subscript" -> calls.subscript(e, scope);
             case "call" -> calls.call(e, scope);
-            case "lambda" -> new Obj(PyObjects.LAMBDA, new PyObjects.Lambda(e, scope));
+            case "lambda" -> {
+                defined.putIfAbsent(e, scope);
+                yield new Obj(PyObjects.LAMBDA, new PyObjects.Lambda(e, scope));
+            }
             case "list_comprehension", "generator_expression", "set_comprehension", "dictionary_comprehension" -> comprehension(e, scope);
             case "named_expression" -> {
                 Value v = eval(e.field("value"), scope);
