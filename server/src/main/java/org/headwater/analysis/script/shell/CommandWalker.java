@@ -69,12 +69,12 @@ public final class CommandWalker {
         }
         List<String> words = new ArrayList<>();
         for (Node v : values) {
-            String w = ShellWords.value(v, variables, driver);
-            if (w == null || v.is("command_substitution") || words.size() >= MAX_LOOP_VALUES) {
+            List<String> fields = ShellWords.fields(v, variables, driver);
+            if (fields.contains(null) || v.is("command_substitution") || words.size() + fields.size() > MAX_LOOP_VALUES) {
                 words = null;
                 break;
             }
-            words.add(w);
+            words.addAll(fields);
         }
         if (words == null || words.isEmpty()) {
             variables.remove(variable.text());
@@ -96,7 +96,7 @@ public final class CommandWalker {
         }
         words.add(ShellWords.value(name, variables, driver));
         for (Node arg : n.fields("argument")) {
-            words.add(ShellWords.value(arg, variables, driver));
+            words.addAll(ShellWords.fields(arg, variables, driver));
         }
         while (!words.isEmpty() && words.get(0) != null && (PREFIXES.contains(words.get(0)) || words.get(0).matches("\\w+=.*"))) {
             words.remove(0);

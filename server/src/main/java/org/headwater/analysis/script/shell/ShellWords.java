@@ -13,6 +13,67 @@ final class ShellWords {
     private ShellWords() {
     }
 
+    /**
+     * The fields an argument becomes: an unquoted expansion is split at blanks, so {@code $DIR/x} with
+     * {@code DIR="a b"} gives two fields, and an empty one gives none. // reference: POSIX Shell Command
+     * Language, 2.6.5 Field Splitting (default IFS); pathname expansion of unquoted stars is not done.
+     * A field the analysis cannot know is {@code null}.
+     */
+    static java.util.List<String> fields(Node n, Map<String, String> variables, Path driver) {
+        java.util.List<String> out = new java.util.ArrayList<>();
+        if (n.is("simple_expansion") || n.is("expansion")) {
+            String v = value(n, variables, driver);
+            if (v == null) {
+                out.add(null);
+            } else {
+                out.addAll(split(v));
+            }
+            return out;
+        }
+        if (!n.is("concatenation")) {
+            out.add(value(n, variables, driver));
+            return out;
+        }
+        StringBuilder current = null;
+        for (Node part : n.named()) {
+            boolean unquoted = part.is("simple_expansion") || part.is("expansion");
+            String v = value(part, variables, driver);
+            if (v == null) {
+                return java.util.Collections.singletonList(null);
+            }
+            java.util.List<String> pieces = unquoted ? split(v) : java.util.List.of(v);
+            boolean leadingBlank = unquoted && !v.isEmpty() && Character.isWhitespace(v.charAt(0));
+            boolean trailingBlank = unquoted && !v.isEmpty() && Character.isWhitespace(v.charAt(v.length() - 1));
+            for (int i = 0; i < pieces.size(); i++) {
+                if (current == null || i > 0 || leadingBlank) {
+                    if (current != null) {
+                        out.add(current.toString());
+                    }
+                    current = new StringBuilder();
+                }
+                current.append(pieces.get(i));
+            }
+            if (trailingBlank && current != null) {
+                out.add(current.toString());
+                current = null;
+            }
+        }
+        if (current != null) {
+            out.add(current.toString());
+        }
+        return out;
+    }
+
+    private static java.util.List<String> split(String v) {
+        java.util.List<String> out = new java.util.ArrayList<>();
+        for (String f : v.strip().split("[ \t\n]+")) {
+            if (!f.isEmpty()) {
+                out.add(f);
+            }
+        }
+        return out;
+    }
+
     static String value(Node n, Map<String, String> variables, Path driver) {
         return switch (n.type()) {
             case "word", "number", "command_name" -> n.is("command_name") ? concat(n, variables, driver) : unescape(n.text());
