@@ -63,7 +63,7 @@ final class PyFormat {
         return switch (t) {
             case "d" -> n.integral() ? Long.toString((long) v) : null;
             case "", "n" -> n.integral() ? Long.toString((long) v) : Dialect.PYTHON.number(n);
-            case "f", "F" -> String.format(Locale.ROOT, "%." + (s.precision < 0 ? 6 : s.precision) + "f", v);
+            case "f", "F" -> fixed(v, s.precision < 0 ? 6 : s.precision);
             case "e" -> String.format(Locale.ROOT, "%." + (s.precision < 0 ? 6 : s.precision) + "e", v);
             case "x" -> n.integral() ? Long.toHexString((long) v) : null;
             case "X" -> n.integral() ? Long.toHexString((long) v).toUpperCase(Locale.ROOT) : null;
@@ -71,6 +71,17 @@ final class PyFormat {
             case "b" -> n.integral() ? Long.toBinaryString((long) v) : null;
             default -> null;
         };
+    }
+
+    /**
+     * Fixed-point text of a double: Python rounds the exact binary value half to even, where Java's
+     * Formatter rounds half up. // reference: Python 3 format(2.5, ".0f") == "2"
+     */
+    static String fixed(double v, int precision) {
+        if (Double.isNaN(v) || Double.isInfinite(v)) {
+            return Double.isNaN(v) ? "nan" : v > 0 ? "inf" : "-inf";
+        }
+        return new java.math.BigDecimal(v).setScale(precision, java.math.RoundingMode.HALF_EVEN).toPlainString();
     }
 
     private static String pad(String body, Spec s, boolean numeric) {

@@ -100,6 +100,11 @@ final class RStrings {
                 if (type == 'd' || type == 'i') {
                     return n.value() == Math.rint(n.value()) ? String.format(Locale.ROOT, spec.substring(0, spec.length() - 1) + "d", (long) n.value()) : null;
                 }
+                if (type == 'f' && spec.matches("%\\.?\\d*f")) {
+                    // C printf rounds the exact binary value half to even, Java's Formatter half up
+                    int precision = spec.length() > 2 ? Integer.parseInt(spec.substring(2, spec.length() - 1)) : 6;
+                    return new java.math.BigDecimal(n.value()).setScale(precision, java.math.RoundingMode.HALF_EVEN).toPlainString();
+                }
                 if ("feEgGxX".indexOf(type) >= 0) {
                     return "xX".indexOf(type) >= 0 ? String.format(Locale.ROOT, spec, (long) n.value()) : String.format(Locale.ROOT, spec, n.value());
                 }
