@@ -93,11 +93,20 @@ public final class ScriptAnalyzer {
                         + (piece.cell() != null ? " (cell " + piece.cell() + ")" : " (line " + (piece.lineOffset() + 1) + ")"));
             }
         }
-        if (!python.isEmpty()) {
-            PythonEvaluator.main(run, findings).run(python);
+        for (List<Node> parsed : List.of(python, r)) {
+            parsed.stream().filter(Node::hasError).findFirst().ifPresent(n ->
+                    findings.warn("syntax errors: the parser recovered, references near them may be missing"));
         }
-        if (!r.isEmpty()) {
-            REvaluator.main(run, findings).run(r);
+        try {
+            if (!python.isEmpty()) {
+                PythonEvaluator.main(run, findings).run(python);
+            }
+            if (!r.isEmpty()) {
+                REvaluator.main(run, findings).run(r);
+            }
+        } catch (RuntimeException e) {
+            // A construct the evaluator mishandles must not cost the references already found.
+            findings.warn("analysis stopped early: " + e);
         }
     }
 }

@@ -45,6 +45,13 @@ public final class Node {
 
     /** The child in a grammar field; when a field repeats (the R grammar's {@code else}), the named one. */
     public Node field(String name) {
+        TSNode direct = ts.getChildByFieldName(name);
+        if (direct == null || direct.isNull()) {
+            return null;
+        }
+        if (direct.isNamed()) {
+            return new Node(direct, source); // the common case: one native call
+        }
         Node found = null;
         for (int i = 0; i < ts.getChildCount(); i++) {
             if (name.equals(ts.getFieldNameForChild(i))) {
