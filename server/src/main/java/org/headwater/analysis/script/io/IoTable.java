@@ -42,7 +42,8 @@ public final class IoTable {
         }
     }
 
-    static List<IoRule> parse(BufferedReader reader, String name) throws IOException {
+    /** Reads rows of a table; {@code name} is where they come from, for error messages. */
+    public static List<IoRule> parse(BufferedReader reader, String name) throws IOException {
         List<IoRule> out = new ArrayList<>();
         String line;
         int number = 0;
