@@ -138,4 +138,14 @@ class PythonIdiomsTest {
             assertThat(f.columns()).isEmpty();
         });
     }
+
+    @Test
+    void readsInsideAnImportedWorkspaceFunctionArePlacedAtTheCallInThisScript() throws Exception {
+        ScriptAnalysis a = new Snippets(ws)
+                .file("helpers.py", "import pandas as pd", "", "", "def load(name):", "    return pd.read_csv(f'raw/{name}.csv')")
+                .file("job.py", "from helpers import load", "sites = load('sites')").analyze("job.py");
+        assertThat(Refs.of(a)).containsExactly("READ raw/sites.csv @2");
+        assertThat(a.references().get(0).expressionText()).isEqualTo("load('sites')");
+        assertThat(a.references().get(0).confidence()).isEqualTo(0.9);
+    }
 }

@@ -78,4 +78,19 @@ class RIdiomsTest {
         assertThat(Refs.of(s.analyze("m.R"))).containsExactly("READ ? @2 [args[[1]]]");
         assertThat(Refs.of(s.analyze("m.R", List.of("raw/given.csv")))).containsExactly("READ raw/given.csv @2");
     }
+
+    @Test
+    void readsInsideASourcedFunctionArePlacedAtTheCallInThisScript() throws Exception {
+        ScriptAnalysis a = new Snippets(ws).file("helpers.R", "", "", "load_site <- function(n) readRDS(paste0(\"raw/\", n, \".rds\"))")
+                .file("m.R", "source(\"helpers.R\")", "", "s <- load_site(\"north\")").analyze("m.R");
+        assertThat(Refs.of(a)).containsExactly("READ raw/north.rds @3");
+    }
+
+    @Test
+    void pasteJoinsWithItsSeparator() throws Exception {
+        ScriptAnalysis a = new Snippets(ws).file("m.R", "readRDS(paste(\"raw/part\", 3, \"a.rds\", sep = \"_\"))",
+                "readRDS(here::here(\"raw\", \"b.rds\"))").analyze("m.R");
+        // reference: R documentation of paste (sep) and here::here (paths from the project root)
+        assertThat(Refs.of(a)).containsExactly("READ raw/part_3_a.rds @1", "READ raw/b.rds @2");
+    }
 }

@@ -18,6 +18,11 @@ import org.headwater.model.DatasetKind;
 public final class ReferenceMaker {
     /** A command-line argument no driver supplies: dropped when the code has a default beside it. */
     public static final String NO_ARGUMENT = "no command-line argument given";
+    /**
+     * A read or write inside a function of another workspace file, placed at this script's call: the
+     * path is this call's, but the function's body is not this script's to show.
+     */
+    public static final double OTHER_FILE = 0.9;
     // The token scan of SQL text is a heuristic (see SqlTables).
     private static final double SQL_SCAN = 0.8;
 

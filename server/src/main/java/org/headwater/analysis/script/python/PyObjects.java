@@ -22,8 +22,8 @@ final class PyObjects {
     private PyObjects() {
     }
 
-    /** A function defined in the script, with the scope it closes over. */
-    record Function(Node def, Scope closure) {
+    /** A function defined in the script or a workspace module ({@code module}), with the scope it closes over. */
+    record Function(Node def, Scope closure, String module) {
     }
 
     record Lambda(Node node, Scope closure) {

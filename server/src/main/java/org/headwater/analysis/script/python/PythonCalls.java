@@ -83,7 +83,7 @@ final class PythonCalls {
         if (callee instanceof Obj o && o.state() instanceof PyObjects.Function f) {
             Map<String, Value> named = new LinkedHashMap<>();
             args.named().forEach((k, v) -> named.put(k, v.value()));
-            return ev.invoke(f, args.positional().stream().map(CallArgs.Arg::value).toList(), named, false);
+            return ev.invoke(f, args.positional().stream().map(CallArgs.Arg::value).toList(), named, call);
         }
         if (callee instanceof Obj o && o.state() instanceof PyObjects.Lambda l) {
             return ev.invokeLambda(l, args.positional().stream().map(CallArgs.Arg::value).toList());
@@ -314,10 +314,12 @@ final class PythonCalls {
                 continue; // the open() that made this file object already made the reference
             }
             String qualified = rule.anyReceiver() ? function : rule.function();
+            Optional<Node> site = ev.foreignCallSite();
             List<DataReference> made = new ArrayList<>();
             for (Direction d : directions(rule, args, call)) {
-                double f = factor * (rule.direction() == null && !modeKnown(rule, args) ? UNKNOWN_MODE : 1.0);
-                made.addAll(refs.make(rule, d, path.get().value(), path.get().node(), call, qualified, f));
+                double f = factor * (rule.direction() == null && !modeKnown(rule, args) ? UNKNOWN_MODE : 1.0)
+                        * (site.isPresent() ? ReferenceMaker.OTHER_FILE : 1.0);
+                made.addAll(refs.make(rule, d, path.get().value(), site.orElse(path.get().node()), site.orElse(call), qualified, f));
             }
             for (DataReference ref : made) {
                 if (ref.direction() == Direction.WRITE) {

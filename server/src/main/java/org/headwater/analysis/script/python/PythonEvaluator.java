@@ -37,6 +37,8 @@ public final class PythonEvaluator {
     private final Map<Node, Scope> defined = new LinkedHashMap<>();
     private final Set<String> called = new java.util.HashSet<>();
     private final List<List<Value>> returnStack = new ArrayList<>();
+    // Calls of this script into functions of other workspace files, outermost first.
+    private final java.util.ArrayDeque<Node> foreignCalls = new java.util.ArrayDeque<>();
     private int depth;
 
     PythonEvaluator(RunSetting run, Findings findings, LocalModules modules, String moduleName) {
@@ -88,7 +90,7 @@ public final class PythonEvaluator {
                     if (e.getKey().is("lambda")) {
                         invokeLambda(new PyObjects.Lambda(e.getKey(), e.getValue()), List.of());
                     } else {
-                        invoke(new PyObjects.Function(e.getKey(), e.getValue()), List.of(), Map.of(), true);
+                        invoke(new PyObjects.Function(e.getKey(), e.getValue(), moduleName), List.of(), Map.of(), true);
                     }
                 }
             }
@@ -304,7 +306,7 @@ public final class PythonEvaluator {
     }
 
     private void define(Node def, Scope scope) {
-        scope.set(def.field("name").text(), new Obj(PyObjects.FUNCTION, new PyObjects.Function(def, scope)));
+        scope.set(def.field("name").text(), new Obj(PyObjects.FUNCTION, new PyObjects.Function(def, scope, moduleName)));
         defined.put(def, scope);
     }
 
@@ -317,6 +319,26 @@ public final class PythonEvaluator {
                 defined.put(d, scope); // methods: run once with unknown arguments
             } else {
                 statement(stmt, body);
+            }
+        }
+    }
+
+    /** The call in this script that led into another workspace file's function, if the evaluation is inside one. */
+    Optional<Node> foreignCallSite() {
+        return Optional.ofNullable(foreignCalls.peekFirst());
+    }
+
+    /** Calls a function, placing what it reads and writes at {@code site} when the function is another file's. */
+    Value invoke(PyObjects.Function fn, List<Value> positional, Map<String, Value> named, Node site) {
+        boolean foreign = !moduleName.equals(fn.module());
+        if (foreign) {
+            foreignCalls.addLast(site);
+        }
+        try {
+            return invoke(fn, positional, named, false);
+        } finally {
+            if (foreign) {
+                foreignCalls.removeLast();
             }
         }
     }

@@ -77,7 +77,7 @@ final class RCalls {
             CallArgs args = arguments(argNodes, scope, pipedValue, piped);
             Map<String, Value> named = new LinkedHashMap<>();
             args.named().forEach((k, v) -> named.put(k, v.value()));
-            return ev.invoke(fn, args.positional().stream().map(CallArgs.Arg::value).toList(), named, false);
+            return ev.invoke(fn, args.positional().stream().map(CallArgs.Arg::value).toList(), named, call);
         }
         if (!(callee instanceof Value.Name name)) {
             arguments(argNodes, scope, pipedValue, piped);
@@ -176,9 +176,11 @@ final class RCalls {
             }
             List<Direction> directions = rule.direction() != null ? List.of(rule.direction())
                     : IoRule.directionsOfMode(args.bind(rule.params(), "open").flatMap(a -> Values.constant(a.value())).orElse(rule.defaultMode()));
+            Optional<Node> site = ev.foreignCallSite();
+            double where = site.isPresent() ? ReferenceMaker.OTHER_FILE : 1.0;
             List<DataReference> made = new ArrayList<>();
             for (Direction d : directions) {
-                made.addAll(refs.make(rule, d, path.get().value(), path.get().node(), call, rule.function(), factor));
+                made.addAll(refs.make(rule, d, path.get().value(), site.orElse(path.get().node()), site.orElse(call), rule.function(), factor * where));
             }
             for (DataReference ref : made) {
                 if (ref.direction() == Direction.WRITE) {

@@ -26,8 +26,8 @@ public final class REvaluator {
     static final String FUNCTION = "function";
     static final String SERIES = "r.column";
 
-    /** A function of the script. */
-    record RFunction(Node def, Scope closure) {
+    /** A function of the script, or of a file it sourced ({@code origin}, relative to the workspace root). */
+    record RFunction(Node def, Scope closure, java.nio.file.Path origin) {
     }
 
     /** A data-frame column, or a value computed from columns. */
@@ -41,6 +41,8 @@ public final class REvaluator {
     private final Map<String, RFunction> defined = new LinkedHashMap<>();
     private final java.util.Set<String> called = new java.util.HashSet<>();
     private final List<List<Value>> returns = new ArrayList<>();
+    // Calls of this script into functions of sourced files, outermost first.
+    private final java.util.ArrayDeque<Node> foreignCalls = new java.util.ArrayDeque<>();
     private int depth;
 
     REvaluator(RunSetting run, Findings findings) {
@@ -123,7 +125,7 @@ public final class REvaluator {
                 yield new Value.Nothing();
             }
             case "function_definition", "lambda_function" -> {
-                RFunction fn = new RFunction(e, scope);
+                RFunction fn = new RFunction(e, scope, run.script());
                 defined.putIfAbsent(key(e), fn);
                 yield new Value.Obj(FUNCTION, fn);
             }
@@ -232,6 +234,25 @@ public final class REvaluator {
             return Values.truth(v).<Value>map(b -> new Value.Bool(!b)).orElse(new Value.Unknown("!"));
         }
         return v instanceof Value.Num ? v : new Value.Unknown("unary " + op);
+    }
+
+    Optional<Node> foreignCallSite() {
+        return Optional.ofNullable(foreignCalls.peekFirst());
+    }
+
+    /** Calls a function, placing what it reads and writes at {@code site} when the function is a sourced file's. */
+    Value invoke(RFunction fn, List<Value> positional, Map<String, Value> named, Node site) {
+        boolean foreign = !run.script().equals(fn.origin());
+        if (foreign) {
+            foreignCalls.addLast(site);
+        }
+        try {
+            return invoke(fn, positional, named, false);
+        } finally {
+            if (foreign) {
+                foreignCalls.removeLast();
+            }
+        }
     }
 
     /** Calls a function of the script with its arguments matched to its formals. */
