@@ -18,9 +18,11 @@ public sealed interface Value {
     record PathValue(Text text) implements Value {
     }
 
+    /** A number; {@code integral} keeps Python's int/float distinction for formatting. */
     record Num(double value, boolean integral) implements Value {
     }
 
+    /** True or false. */
     record Bool(boolean value) implements Value {
     }
 
