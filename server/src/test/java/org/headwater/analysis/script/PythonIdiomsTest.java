@@ -148,4 +148,21 @@ class PythonIdiomsTest {
         assertThat(a.references().get(0).expressionText()).isEqualTo("load('sites')");
         assertThat(a.references().get(0).confidence()).isEqualTo(0.9);
     }
+
+    @Test
+    void streamFunctionsReportTheOpenCallOnceAndUnknownStreamsAsUnresolved() throws Exception {
+        ScriptAnalysis a = new Snippets(ws).file("job.py", "import json", "import sys", "import csv",
+                "with open('raw/cfg.json') as fh:", "    cfg = json.load(fh)",
+                "json.dump(cfg, sys.stdout)",
+                "def save(rows, out):", "    csv.writer(out).writerows(rows)").analyze("job.py");
+        assertThat(Refs.of(a)).containsExactly("READ raw/cfg.json @4", "WRITE ? @8 [out]");
+        assertThat(a.references()).extracting(DataReference::function).containsExactly("builtins.open", "csv.writer");
+    }
+
+    @Test
+    void readSqlWithABareNameReadsThatTable() throws Exception {
+        ScriptAnalysis a = new Snippets(ws).file("job.py", "import pandas as pd", "t = pd.read_sql('hive_weights', con)",
+                "q = pd.read_sql_query('select * from coop.sites s join coop.hives h on s.id = h.site', con)").analyze("job.py");
+        assertThat(Refs.of(a)).containsExactly("READ table:hive_weights @2", "READ table:coop.sites @3", "READ table:coop.hives @3");
+    }
 }

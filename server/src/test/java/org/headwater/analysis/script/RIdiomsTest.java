@@ -93,4 +93,12 @@ class RIdiomsTest {
         // reference: R documentation of paste (sep) and here::here (paths from the project root)
         assertThat(Refs.of(a)).containsExactly("READ raw/part_3_a.rds @1", "READ raw/b.rds @2");
     }
+
+    @Test
+    void dbiTablesAreReadAndWrittenByName() throws Exception {
+        ScriptAnalysis a = new Snippets(ws).file("m.R", "library(DBI)", "con <- dbConnect(RSQLite::SQLite(), \"work/coop.db\")",
+                "hives <- dbReadTable(con, \"hives\")", "dbWriteTable(con, name = \"hives_copy\", value = hives)").analyze("m.R");
+        assertThat(Refs.of(a)).containsExactly("READ table:hives @3", "WRITE table:hives_copy @4");
+        assertThat(a.flows()).singleElement().satisfies(f -> assertThat(f.sources()).containsExactly("table:hives"));
+    }
 }
