@@ -1,0 +1,4 @@
+package org.headwater.analysis.script;
+
+/** Whether a script reads or writes a dataset. */
+public enum Direction { READ, WRITE }

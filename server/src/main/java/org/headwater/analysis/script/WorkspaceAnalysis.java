@@ -1,0 +1,54 @@
+package org.headwater.analysis.script;
+
+import java.io.IOException;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.Comparator;
+import java.util.List;
+import java.util.stream.Stream;
+import org.headwater.model.Language;
+
+/**
+ * Analyses every script of a workspace: shell drivers first, so that their command lines feed the
+ * scripts they run, then every Python, notebook and R script. Hidden folders are skipped.
+ */
+public final class WorkspaceAnalysis {
+    private final ScriptAnalyzer analyzer = new ScriptAnalyzer();
+    private final ShellDriverAnalyzer drivers = new ShellDriverAnalyzer();
+
+    public List<ScriptAnalysis> analyze(Path workspaceRoot, AnalysisContext ctx) throws IOException {
+        Path root = workspaceRoot.toAbsolutePath().normalize();
+        List<Path> scripts = scripts(root);
+        List<ScriptInvocation> invocations = new ArrayList<>(ctx.invocations());
+        for (Path s : scripts) {
+            if (Language.ofFileName(s.getFileName().toString()).orElse(null) == Language.SHELL) {
+                invocations.addAll(drivers.analyze(root, s));
+            }
+        }
+        AnalysisContext full = ctx.withInvocations(invocations);
+        List<ScriptAnalysis> out = new ArrayList<>();
+        for (Path s : scripts) {
+            out.add(analyzer.analyze(root, s, full));
+        }
+        return out;
+    }
+
+    private static List<Path> scripts(Path root) throws IOException {
+        try (Stream<Path> files = Files.walk(root)) {
+            return files.filter(Files::isRegularFile)
+                    .map(root::relativize)
+                    .filter(p -> {
+                        for (Path part : p) {
+                            if (part.toString().startsWith(".")) {
+                                return false;
+                            }
+                        }
+                        return true;
+                    })
+                    .filter(p -> Language.ofFileName(p.getFileName().toString()).filter(l -> l != Language.SQL).isPresent())
+                    .sorted(Comparator.comparing(Path::toString))
+                    .toList();
+        }
+    }
+}
