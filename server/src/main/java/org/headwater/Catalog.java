@@ -5,6 +5,7 @@ import java.io.UncheckedIOException;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.time.Clock;
+import org.headwater.analysis.ScriptLineage;
 import org.headwater.harvest.FolderHarvester;
 import org.headwater.harvest.HarvestProgress;
 import org.headwater.harvest.HarvestSummary;
@@ -67,8 +68,8 @@ public final class Catalog implements AutoCloseable {
     /** Harvests a local folder through the ingestion path; the catalog directory itself is never harvested. */
     public HarvestSummary harvestFolder(Path folder, boolean full, HarvestProgress progress) throws IOException {
         FolderHarvester.Options options = FolderHarvester.Options.defaults().excluding(dataDir).withFull(full);
-        return new FolderHarvester(ingestor, sources, journal, reader, FormatRegistry.standard(), options)
-                .harvest(folder, progress);
+        return new FolderHarvester(ingestor, sources, journal, reader, FormatRegistry.standard(), options,
+                new ScriptLineage(reader)).harvest(folder, progress);
     }
 
     public Path dataDir() {

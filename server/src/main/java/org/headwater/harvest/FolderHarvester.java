@@ -92,9 +92,14 @@ public final class FolderHarvester {
     private final CatalogReader reader;
     private final FileInspector inspector;
     private final Options options;
+    private final org.headwater.analysis.ScriptLineage scriptLineage;
 
+    /**
+     * @param scriptLineage the static analysis run after the files are in, or null to harvest files only
+     */
     public FolderHarvester(Ingestor ingestor, Sources sources, HarvestJournal journal, CatalogReader reader,
-            FormatRegistry formats, Options options) {
+            FormatRegistry formats, Options options, org.headwater.analysis.ScriptLineage scriptLineage) {
+        this.scriptLineage = scriptLineage;
         this.ingestor = ingestor;
         this.sources = sources;
         this.journal = journal;
@@ -130,6 +135,7 @@ public final class FolderHarvester {
             run.process(lister.files, pool);
             run.assembleSets();
             run.removeVanished();
+            run.analyseScripts(name);
             status = run.errors == 0 ? HarvestJournal.OK : HarvestJournal.WITH_ERRORS;
         } catch (IOException | RuntimeException e) {
             journal.error(harvestId, root.toUri().toString(), "harvest_failed", String.valueOf(e.getMessage()));
@@ -390,6 +396,21 @@ public final class FolderHarvester {
                 });
             }
             flush();
+        }
+
+        /**
+         * Static analysis of the workspace's scripts, when anything changed: a changed data file can resolve
+         * a reference, and a changed config module can change every script that imports it.
+         */
+        void analyseScripts(String sourceName) {
+            if (scriptLineage == null || (changes == 0 && !options.full())) {
+                return;
+            }
+            try {
+                apply(scriptLineage.observe(root, sourceId, sourceName));
+            } catch (IOException | RuntimeException e) {
+                error(root.toUri().toString(), "analysis_failed", "Script analysis failed: " + e);
+            }
         }
 
         HarvestJournal.Counts counts() {

@@ -36,6 +36,7 @@ public final class Ingestor {
     private final OwnerApplier owners = new OwnerApplier();
     private final PartitionApplier partitions = new PartitionApplier();
     private final RunApplier runs = new RunApplier(edges);
+    private final ReferenceApplier references = new ReferenceApplier();
 
     public Ingestor(Store store, Clock clock) {
         this.store = store;
@@ -97,6 +98,8 @@ public final class Ingestor {
             edges.apply(tx, o);
         } else if (observation instanceof EdgeGone o) {
             edges.apply(tx, o);
+        } else if (observation instanceof Observation.ScriptReferencesSeen o) {
+            references.apply(tx, o);
         } else if (observation instanceof Observation.RunReported o) {
             runs.apply(tx, o);
         } else if (observation instanceof NoteSet o) {

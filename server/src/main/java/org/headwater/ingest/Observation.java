@@ -168,6 +168,34 @@ public sealed interface Observation {
         }
     }
 
+    /**
+     * What static analysis found in one version of a script: every read and write, resolved to a dataset
+     * where it could be, kept with its expression and location where it could not.
+     */
+    record ScriptReferencesSeen(String scriptUri, String scriptHash, List<Reference> references, List<String> warnings)
+            implements Observation {
+        public ScriptReferencesSeen {
+            Objects.requireNonNull(scriptUri, "scriptUri");
+            references = List.copyOf(references);
+            warnings = warnings == null ? List.of() : List.copyOf(warnings);
+        }
+    }
+
+    /**
+     * One read or write in a script's code.
+     *
+     * @param pattern the workspace-relative path or glob, a table name, or null when nothing is known
+     * @param datasetUri the dataset it was matched to, or null when unresolved
+     */
+    record Reference(String direction, String pattern, boolean resolved, String datasetUri, String function,
+            String expression, int line, int column, Integer cell, double confidence) {
+        public Reference {
+            Objects.requireNonNull(direction, "direction");
+            Objects.requireNonNull(function, "function");
+            expression = expression == null ? "" : expression;
+        }
+    }
+
     /** What people wrote about a dataset: its description and tags, replacing the previous ones. */
     record NoteSet(String uri, String description, Set<String> tags, String author) implements Observation {
         public NoteSet {

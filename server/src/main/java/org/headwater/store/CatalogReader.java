@@ -281,9 +281,10 @@ public final class CatalogReader {
     /** Files of one source that are present now, keyed by URI, for incremental harvest. */
     public Map<String, KnownFile> knownFiles(long sourceId) {
         Map<String, KnownFile> known = new HashMap<>();
+        // Only files: tables and views that scripts define belong to the source but are no files of it.
         db.select(DATASET.URI, DATASET_STATE.SIZE_BYTES, DATASET_STATE.MODIFIED_AT)
                 .from(DATASET).join(DATASET_STATE).on(DATASET_STATE.DATASET_ID.eq(DATASET.ID))
-                .where(DATASET.SOURCE_ID.eq(sourceId), DATASET_STATE.VALID_TO.isNull())
+                .where(DATASET.SOURCE_ID.eq(sourceId), DATASET_STATE.VALID_TO.isNull(), DATASET.URI.startsWith("file:"))
                 .forEach(r -> known.put(r.value1(), new KnownFile(r.value1(), r.value2(), instant(r.value3()),
                         FileRole.DATASET, null)));
         db.select(SCRIPT.URI, SCRIPT_STATE.SIZE_BYTES, SCRIPT_STATE.MODIFIED_AT)
@@ -297,6 +298,38 @@ public final class CatalogReader {
                 .forEach(r -> known.put(r.value1(), new KnownFile(r.value1(), r.value2(), instant(r.value3()),
                         FileRole.PARTITION, r.value4())));
         return known;
+    }
+
+    /**
+     * The names a script may use for this source's files: every present dataset's workspace-relative name,
+     * and every partition's name, each with the URI of the dataset it belongs to (a partition's set).
+     */
+    public Map<String, String> namesOfSource(long sourceId) {
+        Map<String, String> names = new HashMap<>();
+        db.select(DATASET.NAME, DATASET.URI).from(DATASET).join(DATASET_STATE).on(DATASET_STATE.DATASET_ID.eq(DATASET.ID))
+                .where(DATASET.SOURCE_ID.eq(sourceId), DATASET_STATE.VALID_TO.isNull())
+                .forEach(r -> names.put(r.value1(), r.value2()));
+        db.select(DATASET_PARTITION.NAME, DATASET.URI).from(DATASET_PARTITION).join(DATASET)
+                .on(DATASET.ID.eq(DATASET_PARTITION.DATASET_ID))
+                .where(DATASET.SOURCE_ID.eq(sourceId), DATASET_PARTITION.VALID_TO.isNull())
+                .forEach(r -> names.put(r.value1(), r.value2()));
+        return names;
+    }
+
+    /** A current lineage edge found by static analysis, by the URIs of its ends and its script. */
+    public record StaticEdge(String sourceUri, String targetUri, String scriptUri) {
+    }
+
+    /** The current static edges of the scripts of one source. */
+    public List<StaticEdge> staticEdges(long sourceId) {
+        var source = DATASET.as("s");
+        var target = DATASET.as("t");
+        return db.select(source.URI, target.URI, SCRIPT.URI).from(LINEAGE_EDGE)
+                .join(source).on(source.ID.eq(LINEAGE_EDGE.SOURCE_DATASET_ID))
+                .join(target).on(target.ID.eq(LINEAGE_EDGE.TARGET_DATASET_ID))
+                .join(SCRIPT).on(SCRIPT.ID.eq(LINEAGE_EDGE.SCRIPT_ID))
+                .where(SCRIPT.SOURCE_ID.eq(sourceId), LINEAGE_EDGE.EVIDENCE.eq("static"), LINEAGE_EDGE.VALID_TO.isNull())
+                .fetch(r -> new StaticEdge(r.value1(), r.value2(), r.value3()));
     }
 
     /** Search-index entries for datasets present now; absent ids are simply not returned. */

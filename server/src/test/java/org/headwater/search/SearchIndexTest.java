@@ -51,9 +51,9 @@ class SearchIndexTest {
             catalog.harvestFolder(Workspaces.demo(), false, HarvestProgress.NONE);
 
             assertThat(catalog.index().search("nitrate", null, 5).get(0).name()).isEqualTo("lab/nitrate_results_2025.csv");
-            // "sulfate" is only a word of the column sulfate_mg_l, in two files.
+            // "sulfate" is only a word of the column sulfate_mg_l: in two files and the table sql/views.sql defines.
             assertThat(catalog.index().search("sulfate", null, 10)).extracting(SearchHit::name)
-                    .containsExactlyInAnyOrder("lab/ion_chromatograph_2025.csv", "derived/lab_merged.csv");
+                    .containsExactlyInAnyOrder("lab/ion_chromatograph_2025.csv", "derived/lab_merged.csv", "lab_result");
             assertThat(catalog.index().search("merge_lab_results", "script", 10)).extracting(SearchHit::name)
                     .containsExactly("scripts/merge_lab_results.py");
         }
@@ -76,7 +76,7 @@ class SearchIndexTest {
             }
         }
         try (Catalog catalog = Catalog.open(dataDir)) {
-            assertThat(catalog.index().documentCount()).isEqualTo(documents).isEqualTo(24); // 16 datasets and 8 scripts
+            assertThat(catalog.index().documentCount()).isEqualTo(documents).isEqualTo(29); // 16 file datasets, 5 SQL tables and views, 8 scripts
             assertThat(catalog.index().search("nitrate", null, 1).get(0).name()).isEqualTo("lab/nitrate_results_2025.csv");
         }
     }
