@@ -46,9 +46,15 @@ public record Sample(String fileName, byte[] head, boolean complete, long size, 
             int length = Math.min(n, head.length);
             return Arrays.copyOfRange(head, head.length - length, head.length);
         }
-        byte[] bytes = tail.readTail((int) Math.min(n, size));
-        if (bytes.length != Math.min(n, size)) {
-            throw new IOException("Asked for the last " + Math.min(n, size) + " bytes, got " + bytes.length);
+        byte[] bytes;
+        try {
+            bytes = tail.readTail((int) Math.min(n, size));
+        } catch (RuntimeException e) {
+            // A faulty tail reader costs the reader its tail, not the harvest its thread.
+            throw new IOException("The tail reader failed: " + e, e);
+        }
+        if (bytes == null || bytes.length != Math.min(n, size)) {
+            throw new IOException("Asked for the last " + Math.min(n, size) + " bytes, got " + (bytes == null ? "none" : bytes.length));
         }
         return bytes;
     }
