@@ -83,7 +83,8 @@ public final class ContentSniffer {
             return new Sniff("svg", 0.6, "The sample ends inside the XML prolog; the name says .svg");
         }
         String stripped = text.strip();
-        if (!stripped.isEmpty() && (stripped.charAt(0) == '{' || stripped.charAt(0) == '[')) {
+        boolean jsonLike = !stripped.isEmpty() && (stripped.charAt(0) == '{' || stripped.charAt(0) == '[');
+        if (jsonLike) {
             Sniff json = json(stripped, sample);
             if (json != null) {
                 return json;
@@ -91,6 +92,9 @@ public final class ContentSniffer {
         }
         if (controlShare(text) > MAX_CONTROL_SHARE) {
             return new Sniff("binary", 0.8, "Many control characters and no known signature");
+        }
+        if (jsonLike) {
+            return new Sniff("text", 0.6, "Starts like JSON but parses neither as JSON nor as one object per line");
         }
         if (root.name() != null) {
             return new Sniff("text", 0.8, "XML whose root element is <" + root.name() + ">, not <svg>");

@@ -1,12 +1,15 @@
 package org.headwater.harvest.format;
 
-import java.io.ByteArrayInputStream;
+import java.io.StringReader;
+import java.nio.charset.Charset;
 import java.nio.charset.StandardCharsets;
 import java.util.ArrayList;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
 import java.util.Optional;
+import java.util.regex.Matcher;
+import java.util.regex.Pattern;
 import javax.xml.XMLConstants;
 import javax.xml.stream.XMLInputFactory;
 import javax.xml.stream.XMLStreamConstants;
@@ -25,6 +28,7 @@ final class SvgFigure {
     // Dublin Core element set and terms: the vocabulary SVG 1.1 section 21 shows inside <metadata>.
     private static final List<String> DUBLIN_CORE = List.of("http://purl.org/dc/elements/1.1/", "http://purl.org/dc/terms/");
     private static final XMLInputFactory XML = secureFactory();
+    private static final Pattern DECLARED_ENCODING = Pattern.compile("^<\\?xml[^>]*?encoding\\s*=\\s*[\"']([A-Za-z0-9._-]{1,40})[\"']");
 
     private SvgFigure() {
     }
@@ -85,7 +89,7 @@ final class SvgFigure {
         Found found = new Found();
         XMLStreamReader r = null;
         try {
-            r = XML.createXMLStreamReader(new ByteArrayInputStream(bytes));
+            r = XML.createXMLStreamReader(new StringReader(decode(bytes)));
             walk(r, found);
             return found.details(false);
         } catch (XMLStreamException | RuntimeException e) {
@@ -177,6 +181,33 @@ final class SvgFigure {
                 }
             }
         }
+    }
+
+    /**
+     * Decodes the bytes as XML 1.0 appendix F says: a byte-order mark, else the XML declaration's encoding, else
+     * UTF-8. Bytes that do not decode become U+FFFD. Decoding here rather than in the parser keeps the JDK parser
+     * from printing "[Fatal Error]" lines to standard error for bad bytes.
+     */
+    static String decode(byte[] b) {
+        if (ContentSniffer.startsWith(b, 0xEF, 0xBB, 0xBF)) {
+            return new String(b, 3, b.length - 3, StandardCharsets.UTF_8);
+        }
+        if (ContentSniffer.startsWith(b, 0xFF, 0xFE)) {
+            return new String(b, 2, b.length - 2, StandardCharsets.UTF_16LE);
+        }
+        if (ContentSniffer.startsWith(b, 0xFE, 0xFF)) {
+            return new String(b, 2, b.length - 2, StandardCharsets.UTF_16BE);
+        }
+        Matcher m = DECLARED_ENCODING.matcher(new String(b, 0, Math.min(b.length, 256), StandardCharsets.ISO_8859_1));
+        Charset charset = StandardCharsets.UTF_8;
+        if (m.find()) {
+            try {
+                charset = Charset.forName(m.group(1));
+            } catch (IllegalArgumentException unknown) {
+                // An encoding this JVM does not know: UTF-8 is the XML default.
+            }
+        }
+        return new String(b, charset);
     }
 
     /** SVG 1.1 section 7.2 (width, height: lengths with units, kept as written) and 7.7 (viewBox: four numbers). */

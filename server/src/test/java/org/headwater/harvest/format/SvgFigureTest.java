@@ -74,6 +74,15 @@ class SvgFigureTest {
     }
 
     @Test
+    void theDeclaredEncodingIsHonoured() throws Exception {
+        // XML 1.0 section 4.3.3 and appendix F: the encoding declaration names the bytes' encoding.
+        byte[] latin1 = "<?xml version='1.0' encoding='ISO-8859-1'?><svg><title>Café – Grüße</title></svg>"
+                .replace("–", "-").getBytes(StandardCharsets.ISO_8859_1);
+        Reading r = reader.read(new Sample("l.svg", latin1, true, latin1.length));
+        assertThat(r.details()).containsEntry("title", "Café - Grüße");
+    }
+
+    @Test
     void anExternalEntityIsNeverResolved() throws Exception {
         Path secret = Files.writeString(dir.resolve("secret.txt"), "the cellar key is under the mat");
         String xxe = "<?xml version=\"1.0\"?><!DOCTYPE svg [<!ENTITY x SYSTEM \"" + secret.toUri() + "\">]>"
