@@ -61,6 +61,15 @@ final class ParquetFiles {
     private ParquetFiles() {
     }
 
+    /** Writes a file with the given schema and no rows: enough for its footer. */
+    static Path writeEmpty(Path file, MessageType schema) throws IOException {
+        Files.deleteIfExists(file);
+        try (ParquetWriter<Group> writer = ExampleParquetWriter.builder(new LocalOutputFile(file))
+                .withConf(new Configuration(false)).withType(schema).build()) {
+            return file;
+        }
+    }
+
     /** Writes {@code rows} gauge readings in row groups of at most {@code rowsPerGroup} rows. */
     static Path writeGauge(Path file, int rows, int rowsPerGroup, CompressionCodecName codec) throws IOException {
         Files.deleteIfExists(file);
