@@ -64,10 +64,8 @@ final class ParquetFiles {
     /** Writes a file with the given schema and no rows: enough for its footer. */
     static Path writeEmpty(Path file, MessageType schema) throws IOException {
         Files.deleteIfExists(file);
-        try (ParquetWriter<Group> writer = ExampleParquetWriter.builder(new LocalOutputFile(file))
-                .withConf(new Configuration(false)).withType(schema).build()) {
-            return file;
-        }
+        ExampleParquetWriter.builder(new LocalOutputFile(file)).withConf(new Configuration(false)).withType(schema).build().close();
+        return file;
     }
 
     /** Writes {@code rows} gauge readings in row groups of at most {@code rowsPerGroup} rows. */

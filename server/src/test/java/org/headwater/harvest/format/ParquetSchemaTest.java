@@ -74,6 +74,7 @@ class ParquetSchemaTest {
     }
 
     @Test
+    @SuppressWarnings("deprecation") // converted (original) types are the deprecated legacy under test
     void aFooterWithOnlyConvertedTypesIsReadAsTheirLogicalTypes() throws Exception {
         List<SchemaElement> schema = List.of(
                 new SchemaElement("old").setNum_children(4),
