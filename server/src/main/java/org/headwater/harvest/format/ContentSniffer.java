@@ -74,7 +74,8 @@ public final class ContentSniffer {
         if (TextDecoding.looksBinary(head)) {
             return new Sniff("binary", 0.9, "NUL bytes in the first 8 KiB and no known signature");
         }
-        String text = TextDecoding.decode(head, sample.complete()).text();
+        TextDecoding.Decoded decoded = TextDecoding.decode(head, sample.complete());
+        String text = decoded.text();
         XmlProlog.Root root = XmlProlog.root(text);
         if (root.svg()) {
             return new Sniff("svg", 0.95, "XML whose root element is <" + root.name() + ">");
@@ -99,8 +100,7 @@ public final class ContentSniffer {
         if (root.name() != null) {
             return new Sniff("text", 0.8, "XML whose root element is <" + root.name() + ">, not <svg>");
         }
-        return new Sniff("text", 0.7, "Decodes as " + TextDecoding.decode(head, sample.complete()).charset().name()
-                + " text without NUL bytes");
+        return new Sniff("text", 0.7, "Decodes as " + decoded.charset().name() + " text without NUL bytes");
     }
 
     /** PAR1 at the start; the footer's PAR1 at the end confirms it when the end can be read. */

@@ -67,6 +67,9 @@ public final class ParquetReader implements FormatReader {
         }
         byte[] footer = tail(sample, footerLength + TRAILER_LENGTH);
         FileMetaData meta = decode(footer, footerLength);
+        if (meta.getNum_rows() < 0) {
+            throw new UnreadableFileException("invalid", "The Parquet footer gives a negative row count " + meta.getNum_rows());
+        }
         List<ParquetSchema.Column> columns = ParquetSchema.columns(meta.getSchema());
         return reading(meta, columns, footerLength);
     }

@@ -222,6 +222,16 @@ class ParquetReaderTest {
     }
 
     @Test
+    void anEncryptedFooterIsReportedWithoutColumns() throws Exception {
+        // parquet-format Encryption.md: files with an encrypted footer start and end with "PARE" (from memory).
+        byte[] bytes = "PARE-encrypted-bytes-PARE".getBytes(java.nio.charset.StandardCharsets.US_ASCII);
+        Reading r = reader.read(whole("secret.parquet", bytes));
+        assertThat(r.format()).isEqualTo("parquet");
+        assertThat(r.columns()).isNull();
+        assertThat(r.details()).isEqualTo(Map.of("encrypted_footer", true));
+    }
+
+    @Test
     void theSnifferCallsAParquetFileParquetWhateverItsName() throws Exception {
         byte[] bytes = Files.readAllBytes(ParquetFiles.writeGauge(dir.resolve("g.parquet"), 5, 100, CompressionCodecName.UNCOMPRESSED));
         assertThat(ContentSniffer.sniff(whole("export.csv", bytes)))
