@@ -11,6 +11,7 @@ import java.util.Optional;
 import java.security.NoSuchAlgorithmException;
 import java.util.Arrays;
 import java.util.HexFormat;
+import org.headwater.harvest.format.FileTailReader;
 import org.headwater.harvest.format.FormatRegistry;
 import org.headwater.harvest.format.Reading;
 import org.headwater.harvest.format.Sample;
@@ -59,7 +60,8 @@ final class FileInspector {
         if (language.isPresent()) {
             return new Facts(file, size, modified, head.sha256(), language, null, null, null, null);
         }
-        Sample sample = new Sample(fileName, head.bytes(), head.bytes().length >= size, size);
+        Sample sample = new Sample(fileName, head.bytes(), head.bytes().length >= size, size,
+                new FileTailReader(file, size));
         String fallback = sample.extension().isEmpty() ? "unknown" : sample.extension();
         try {
             return new Facts(file, size, modified, head.sha256(), language, formats.read(sample), fallback, null, null);

@@ -13,7 +13,10 @@ public final class FormatRegistry {
 
     /** The readers that ship with Headwater. */
     public static FormatRegistry standard() {
-        return new FormatRegistry(List.of(new DelimitedTextReader(), new JsonRecordsReader(), new FigureReader()));
+        // Readers that recognise content by its signature come first, so a ".csv" holding a PNG or a
+        // Parquet file goes to the reader of what it holds.
+        return new FormatRegistry(List.of(new ParquetReader(), new FigureReader(), new DelimitedTextReader(),
+                new JsonRecordsReader()));
     }
 
     /** Reads the sample with the first reader that accepts it. */

@@ -5,7 +5,10 @@ public final class UnreadableFileException extends Exception {
     private final String kind;
 
     /**
-     * @param kind a short stable word for the harvest summary: {@code invalid}, {@code truncated}, {@code binary}
+     * @param kind a short stable word for the harvest summary: {@code invalid} (the bytes break the format),
+     *     {@code truncated} (the file ends early), {@code binary} (binary where text was expected),
+     *     {@code too_large} (over a reader's stated size cap), {@code unreadable} (the rest of the file, asked
+     *     for through the sample's tail reader, could not be read)
      */
     public UnreadableFileException(String kind, String message) {
         super(message);
