@@ -50,5 +50,11 @@ def main(argv=None):
     return 2
 
 
+
+def cli():
+    """Entry point of the ``headwater`` console script."""
+    sys.exit(main())
+
+
 if __name__ == "__main__":
     sys.exit(main())
