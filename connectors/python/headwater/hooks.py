@@ -227,26 +227,78 @@ def groups(table=None):
 # when it counts ``stacklevel`` (Lib/warnings.py, _is_internal_frame and
 # _next_external_frame; Python/_warnings.c, is_internal_frame), so a warning
 # that a wrapped library raises for its caller still names the script's line,
-# exactly as without capture.  Tracebacks drop these frames too (see
-# tbfilter.py).
+# exactly as without capture.  A wrapper also removes its own entry from the
+# traceback of an exception passing through it (Python >= 3.11 keeps that
+# removal), and tbfilter.py removes it from tracebacks printed at exit.
 HIDDEN_FILENAME = "<headwater wrapper, hidden like importlib._bootstrap>"
 
 _FACTORY_SOURCE = '''
 def make_wrapper(orig, group, enter, leave, tls):
     def wrapper(*args, **kwargs):
-        if tls.depth:
-            return orig(*args, **kwargs)
-        ticket = enter(group, args, kwargs)
-        if ticket is None:
-            return orig(*args, **kwargs)
-        tls.depth += 1
+        ticket = None if tls.depth else enter(group, args, kwargs)
+        if ticket is not None:
+            tls.depth += 1
         try:
             result = orig(*args, **kwargs)
+        except BaseException as exc:
+            # Drop this frame's traceback entry; a bare raise adds none
+            # back on Python >= 3.11 (older versions re-add it from the
+            # saved exception state, and tbfilter cleans printed ones).
+            tb = exc.__traceback__
+            if tb is not None and tb.tb_frame.f_code is code:
+                exc.__traceback__ = tb.tb_next
+            raise
         finally:
-            tls.depth -= 1
-        leave(ticket, result)
+            if ticket is not None:
+                tls.depth -= 1
+        if ticket is not None:
+            leave(ticket, result)
         return result
+    code = wrapper.__code__
     return wrapper
+
+
+class Unbound(object):
+    """Wrapper for a builtin (C) function.  Builtins do not bind as methods
+    when stored as class attributes (e.g. pathlib's accessor on Python
+    3.9/3.10 has ``open = io.open``), so their stand-in must not either: an
+    object with __call__ and no __get__."""
+
+    def __init__(self, orig, group, enter, leave, tls):
+        self._orig = orig
+        self._group = group
+        self._enter = enter
+        self._leave = leave
+        self._tls = tls
+
+    def __call__(self, *args, **kwargs):
+        tls = self._tls
+        ticket = None if tls.depth else self._enter(self._group, args, kwargs)
+        if ticket is not None:
+            tls.depth += 1
+        try:
+            result = self._orig(*args, **kwargs)
+        except BaseException as exc:
+            tb = exc.__traceback__
+            if tb is not None and tb.tb_frame.f_code is _UNBOUND_CODE:
+                exc.__traceback__ = tb.tb_next
+            raise
+        finally:
+            if ticket is not None:
+                tls.depth -= 1
+        if ticket is not None:
+            self._leave(ticket, result)
+        return result
+
+    def __repr__(self):
+        return repr(self._orig)
+
+    def __reduce__(self):
+        # Pickled by name, like the builtin it stands for.
+        return self._orig.__qualname__
+
+
+_UNBOUND_CODE = Unbound.__call__.__code__
 
 
 def make_exit(orig, note):
@@ -289,7 +341,10 @@ _MARK = "__headwater_wrapped__"
 
 
 def wrap(orig, group, enter, leave):
-    wrapper = _factory["make_wrapper"](orig, group, enter, leave, tls)
+    if hasattr(orig, "__get__"):
+        wrapper = _factory["make_wrapper"](orig, group, enter, leave, tls)
+    else:
+        wrapper = _factory["Unbound"](orig, group, enter, leave, tls)
     try:
         functools.update_wrapper(wrapper, orig)
     except Exception:
