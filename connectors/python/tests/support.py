@@ -453,3 +453,8 @@ def sha256(data):
     import hashlib
 
     return hashlib.sha256(data).hexdigest()
+
+
+def file_sha256(path):
+    with open(path, "rb") as handle:
+        return sha256(handle.read())
