@@ -34,7 +34,6 @@ def chain_sitecustomize(this_file, namespace):
     globals).  A failure is reported the way site.py reports a failing
     sitecustomize (CPython Lib/site.py, execsitecustomize)."""
     import importlib.machinery
-    import importlib.util
 
     here = os.path.dirname(os.path.abspath(this_file))
     rest = []
@@ -58,7 +57,18 @@ def chain_sitecustomize(this_file, namespace):
         return None
     if spec.origin and os.path.abspath(spec.origin) == os.path.abspath(this_file):
         return None
-    module = importlib.util.module_from_spec(spec)
+    # What importlib.util.module_from_spec does, without importing
+    # importlib.util (and contextlib, collections...) at every start-up.
+    module = spec.loader.create_module(spec) if hasattr(spec.loader, "create_module") else None
+    if module is None:
+        module = type(sys)(spec.name)
+    module.__spec__ = spec
+    module.__loader__ = spec.loader
+    module.__package__ = spec.parent
+    if spec.has_location:
+        module.__file__ = spec.origin
+        if spec.cached:
+            module.__cached__ = spec.cached
     try:
         spec.loader.exec_module(module)
     except Exception as err:

@@ -12,8 +12,7 @@ import os
 import stat as stat_module
 import sys
 import threading
-import uuid
-from datetime import datetime, timezone
+import time
 
 from headwater import CLIENT, config, hooks, log, tbfilter
 from headwater.hooks import RETURN, internal, tls
@@ -31,10 +30,33 @@ _HASH_CHUNK = 1024 * 1024
 _PACKAGE_DIR = os.path.dirname(os.path.abspath(__file__))
 
 
-def utc_now():
+def iso_utc(epoch):
     """ISO 8601 UTC with milliseconds, e.g. 2026-12-01T22:00:00.123Z."""
-    now = datetime.now(timezone.utc)
-    return now.strftime("%Y-%m-%dT%H:%M:%S.") + "%03dZ" % (now.microsecond // 1000)
+    millis = int(round(epoch * 1000))
+    return time.strftime("%Y-%m-%dT%H:%M:%S", time.gmtime(millis // 1000)) + ".%03dZ" % (millis % 1000)
+
+
+def uuid4():
+    """A random UUID, RFC 4122 section 4.4 (version 4, variant 10xx): the
+    same as str(uuid.uuid4()) without importing uuid at start-up."""
+    raw = bytearray(os.urandom(16))
+    raw[6] = (raw[6] & 0x0F) | 0x40
+    raw[8] = (raw[8] & 0x3F) | 0x80
+    h = raw.hex()
+    return "%s-%s-%s-%s-%s" % (h[:8], h[8:12], h[12:16], h[16:20], h[20:])
+
+
+def python_version():
+    """What platform.python_version() gives (e.g. 3.11.7, 3.14.0a1)."""
+    v = sys.version_info
+    text = "%d.%d.%d" % (v[0], v[1], v[2])
+    if v.releaselevel != "final":
+        text += {"alpha": "a", "beta": "b", "candidate": "rc"}.get(v.releaselevel, "") + str(v.serial)
+    return text
+
+
+def utc_now():
+    return iso_utc(time.time())
 
 
 def sha256_file(path, limit=None):
@@ -49,17 +71,24 @@ def sha256_file(path, limit=None):
     if limit is not None and st.st_size > limit:
         return st.st_size, None
     digest = hashlib.sha256()
-    buf = bytearray(_HASH_CHUNK)
-    view = memoryview(buf)
     size = 0
     try:
         with _open(path, "rb", buffering=0) as handle:
-            while True:
-                n = handle.readinto(buf)
-                if not n:
-                    break
-                size += n
-                digest.update(view[:n])
+            if st.st_size < _HASH_CHUNK:
+                data = handle.read()
+                while data:
+                    size += len(data)
+                    digest.update(data)
+                    data = handle.read()
+            else:
+                buf = bytearray(_HASH_CHUNK)
+                view = memoryview(buf)
+                while True:
+                    n = handle.readinto(buf)
+                    if not n:
+                        break
+                    size += n
+                    digest.update(view[:n])
     except OSError:
         return st.st_size, None
     return size, digest.hexdigest()
@@ -119,36 +148,48 @@ def mode_directions(mode):
 
 
 def frame_info(obj):
-    """Column names, dtypes and row count of a pandas/polars/pyarrow table."""
+    """Column names, dtypes and row count of a pandas/polars/pyarrow table,
+    taken when the call happens (the frame may change later) in a cheap
+    raw form: (columns, dtypes, rows); frame_json makes it JSON.  Types are
+    checked with isinstance, not hasattr: on a DataFrame, hasattr of a
+    missing name searches the columns and hasattr(df, "dtypes") builds a
+    Series."""
     if obj is None:
         return None
     root = type(obj).__module__.split(".", 1)[0]
-    if root not in ("pandas", "polars", "pyarrow"):
+    library = sys.modules.get(root)
+    if library is None or root not in ("pandas", "polars", "pyarrow"):
         return None
     try:
-        if hasattr(obj, "column_names") and hasattr(obj, "num_rows") and hasattr(obj, "schema"):
-            return {
-                "columns": [str(c) for c in obj.column_names],
-                "dtypes": [str(field.type) for field in obj.schema],
-                "rows": int(obj.num_rows),
-            }
-        if root == "polars" and hasattr(obj, "columns") and hasattr(obj, "dtypes"):
-            return {
-                "columns": [str(c) for c in obj.columns],
-                "dtypes": [str(d) for d in obj.dtypes],
-                "rows": int(obj.height) if hasattr(obj, "height") else int(len(obj)),
-            }
-        if root == "pandas" and hasattr(obj, "columns") and hasattr(obj, "dtypes"):
-            return {
-                "columns": [str(c) for c in obj.columns],
-                "dtypes": [str(d) for d in obj.dtypes],
-                "rows": int(len(obj)),
-            }
-        if root == "pandas" and hasattr(obj, "dtype") and hasattr(obj, "name") and hasattr(obj, "index"):
-            return {"columns": [str(obj.name)], "dtypes": [str(obj.dtype)], "rows": int(len(obj))}
+        if root == "pandas":
+            if isinstance(obj, library.DataFrame):
+                dtypes = None
+                manager = getattr(obj, "_mgr", None)
+                if manager is not None and hasattr(manager, "get_dtypes"):
+                    # The block manager's dtypes: what DataFrame.dtypes
+                    # holds, without building that Series.
+                    dtypes = list(manager.get_dtypes())
+                    if len(dtypes) != len(obj.columns):
+                        dtypes = None
+                if dtypes is None:
+                    dtypes = list(obj.dtypes)
+                return (obj.columns.tolist(), dtypes, int(len(obj)))
+            if isinstance(obj, library.Series):
+                return ([obj.name], [obj.dtype], int(len(obj)))
+        elif root == "polars":
+            if isinstance(obj, library.DataFrame):
+                return (list(obj.columns), list(obj.dtypes), int(obj.height))
+        elif root == "pyarrow":
+            if isinstance(obj, (library.Table, library.RecordBatch)):
+                return (list(obj.column_names), [field.type for field in obj.schema], int(obj.num_rows))
     except Exception:
         return None
     return None
+
+
+def frame_json(raw):
+    columns, dtypes, rows = raw
+    return {"columns": [str(c) for c in columns], "dtypes": [str(d) for d in dtypes], "rows": rows}
 
 
 def exit_status(code):
@@ -230,8 +271,9 @@ class Session(object):
     def __init__(self, cfg, mode):
         self.cfg = cfg
         self.mode = mode
-        self.run_id = str(uuid.uuid4())
+        self.run_id = uuid4()
         self.started_at = utc_now()
+        self._now = time.time
         self.ended_at = None
         self.cwd = os.getcwd()
         self.args = list(sys.argv[1:]) if getattr(sys, "argv", None) else None
@@ -481,11 +523,12 @@ class Session(object):
             out.append((file_path, size, sha, file_path in self._written, rel))
         return out
 
-    def _input_hash(self, path):
-        try:
-            st = _stat(path)
-        except OSError:
-            return None, None
+    def _input_hash(self, path, st=None):
+        if st is None:
+            try:
+                st = _stat(path)
+            except OSError:
+                return None, None
         key = (path, st.st_size, st.st_mtime_ns, st.st_ino)
         cached = self._hash_cache.get(key)
         if cached is not None:
@@ -505,7 +548,7 @@ class Session(object):
                 size, sha = self._input_hash(file_path)
                 self._add(file_path, "read", via, size, sha, frame if len(files) == 1 else None)
         elif stat_module.S_ISREG(st.st_mode):
-            size, sha = self._input_hash(path)
+            size, sha = self._input_hash(path, st)
             self._add(path, "read", via, size, sha, frame)
 
     def _after_write(self, via, path, frame, before):
@@ -557,7 +600,7 @@ class Session(object):
                     "bytes": size,
                     "sha256": sha,
                     "via": via,
-                    "at": utc_now(),
+                    "at": self._now(),
                     "frame": frame,
                     "stamped": False,
                 }
@@ -638,7 +681,9 @@ class Session(object):
 
     def _finish_outputs(self):
         stamp = None
-        if self.cfg.stamp:
+        if self.cfg.stamp and any(
+            os.path.splitext(path)[1].lower() in hooks.STAMPABLE for path, _ in self._pending
+        ):
             from headwater import stamp
         for key in list(self._pending):
             path, direction = key
@@ -667,10 +712,12 @@ class Session(object):
         args = self.args
         if args is None:
             args = list(sys.argv[1:]) if getattr(sys, "argv", None) else []
-        import platform
-
         with self._lock:
             io = [dict(entry) for entry in self._io.values()]
+        for entry in io:
+            entry["at"] = iso_utc(entry["at"])
+            if entry["frame"] is not None:
+                entry["frame"] = frame_json(entry["frame"])
         return {
             "run_id": self.run_id,
             "client": CLIENT,
@@ -683,7 +730,7 @@ class Session(object):
             "args": [str(a) for a in args],
             "user": _user(),
             "host": _host(),
-            "python": platform.python_version(),
+            "python": python_version(),
             "cwd": self.cwd,
             "started_at": self.started_at,
             "ended_at": self.ended_at,

@@ -50,42 +50,26 @@ def classify(status):
 
 
 def post(body, cfg):
-    """POST one record (bytes).  Returns (SENT|RETRY|DROPPED, reason)."""
+    """POST one record (bytes).  Returns (SENT|RETRY|DROPPED, reason).
+    http.client directly (lighter to import at every exit than
+    urllib.request); urllib is used when a proxy is configured, so the usual
+    *_proxy variables are honoured."""
     url = cfg.url
     if not url:
         return RETRY, "HEADWATER_URL is not set"
     if not url.lower().startswith(("http://", "https://")):
         log.once("url-scheme", "HEADWATER_URL must start with http:// or https://; run records are spooled")
         return RETRY, "HEADWATER_URL is not an http(s) URL"
-    import urllib.error
-    import urllib.request
-    import http.client
-
-    class NoRedirect(urllib.request.HTTPRedirectHandler):
-        def redirect_request(self, *args, **kwargs):
-            return None
-
     headers = {"Content-Type": "application/json", "Accept": "application/json", "User-Agent": CLIENT}
     if cfg.token:
         headers["Authorization"] = "Bearer " + cfg.token
-    request = urllib.request.Request(endpoint(url), data=body, headers=headers, method="POST")
-    opener = urllib.request.build_opener(NoRedirect)
-    detail = b""
+    target = endpoint(url)
     try:
-        with opener.open(request, timeout=cfg.timeout) as response:
-            status = response.status
-            response.read(65536)
-    except urllib.error.HTTPError as exc:
-        status = exc.code
-        try:
-            detail = exc.read(300) or b""
-        except Exception:
-            detail = b""
-        try:
-            exc.close()
-        except Exception:
-            pass
-    except (urllib.error.URLError, OSError, http.client.HTTPException, ValueError) as exc:
+        if _proxied(target):
+            status, detail = _post_urllib(target, body, headers, cfg.timeout)
+        else:
+            status, detail = _post_direct(target, body, headers, cfg.timeout)
+    except Exception as exc:  # OSError, timeouts, http.client.HTTPException, bad answers
         return RETRY, "server unreachable (%s)" % (getattr(exc, "reason", None) or exc)
     outcome = classify(status)
     reason = "HTTP %d" % status
@@ -93,6 +77,114 @@ def post(body, cfg):
     if text:
         reason += ": " + " ".join(text.split())[:200]
     return outcome, reason
+
+
+def _proxied(target):
+    names = ("https_proxy", "HTTPS_PROXY") if target.lower().startswith("https:") else ("http_proxy", "HTTP_PROXY")
+    if not any(os.environ.get(n) for n in names + ("all_proxy", "ALL_PROXY")):
+        return False
+    import urllib.request
+    from urllib.parse import urlsplit
+
+    return not urllib.request.proxy_bypass(urlsplit(target).hostname or "")
+
+
+def _post_plain_http(host, port, path, body, headers, timeout):
+    """One HTTP/1.1 POST over a plain socket with "Connection: close"
+    (RFC 9112: request line, header fields, Content-Length body; the
+    response's status line and body up to 64 KiB).  For http:// only; it
+    spares every captured process the import of http.client and the email
+    package at exit."""
+    import socket
+
+    host_header = host if port in (None, 80) else "%s:%d" % (host, port)
+    if ":" in host and not host.startswith("["):
+        host_header = "[%s]" % host if port in (None, 80) else "[%s]:%d" % (host, port)
+    lines = ["POST %s HTTP/1.1" % path, "Host: %s" % host_header, "Content-Length: %d" % len(body),
+             "Connection: close"]
+    lines += ["%s: %s" % item for item in headers.items()]
+    request = ("\r\n".join(lines) + "\r\n\r\n").encode("latin-1") + body
+    with socket.create_connection((host, port or 80), timeout=timeout) as sock:
+        sock.sendall(request)
+        chunks = []
+        received = 0
+        while received < 65536:
+            data = sock.recv(65536)
+            if not data:
+                break
+            chunks.append(data)
+            received += len(data)
+            joined = b"".join(chunks)
+            head_end = joined.find(b"\r\n\r\n")
+            if head_end >= 0:
+                length = None
+                for line in joined[:head_end].split(b"\r\n")[1:]:
+                    name, _, value = line.partition(b":")
+                    if name.strip().lower() == b"content-length":
+                        try:
+                            length = int(value.strip())
+                        except ValueError:
+                            length = None
+                if length is not None and len(joined) - head_end - 4 >= length:
+                    break
+    response = b"".join(chunks)
+    status_line = response.split(b"\r\n", 1)[0].split(None, 2)
+    if len(status_line) < 2 or not status_line[0].startswith(b"HTTP/") or not status_line[1].isdigit():
+        raise ValueError("not an HTTP response")
+    status = int(status_line[1])
+    head_end = response.find(b"\r\n\r\n")
+    detail = response[head_end + 4:] if head_end >= 0 else b""
+    return status, (detail[:300] if status >= 300 else b"")
+
+
+def _post_direct(target, body, headers, timeout):
+    from urllib.parse import urlsplit
+
+    parts = urlsplit(target)
+    path = parts.path or "/"
+    if parts.query:
+        path += "?" + parts.query
+    if parts.scheme.lower() == "http":
+        return _post_plain_http(parts.hostname, parts.port, path, body, headers, timeout)
+    import http.client
+
+    if parts.scheme.lower() == "https":
+        import ssl
+
+        conn = http.client.HTTPSConnection(parts.hostname, parts.port, timeout=timeout,
+                                           context=ssl.create_default_context())
+    else:
+        conn = http.client.HTTPConnection(parts.hostname, parts.port, timeout=timeout)
+    try:
+        conn.request("POST", path, body=body, headers=headers)
+        response = conn.getresponse()
+        detail = response.read(65536)
+        return response.status, (detail[:300] if response.status >= 300 else b"")
+    finally:
+        conn.close()
+
+
+def _post_urllib(target, body, headers, timeout):
+    import urllib.error
+    import urllib.request
+
+    class NoRedirect(urllib.request.HTTPRedirectHandler):
+        def redirect_request(self, *args, **kwargs):
+            return None
+
+    request = urllib.request.Request(target, data=body, headers=headers, method="POST")
+    opener = urllib.request.build_opener(NoRedirect)
+    try:
+        with opener.open(request, timeout=timeout) as response:
+            response.read(65536)
+            return response.status, b""
+    except urllib.error.HTTPError as exc:
+        try:
+            detail = exc.read(300) or b""
+        except Exception:
+            detail = b""
+        exc.close()
+        return exc.code, detail
 
 
 class SpoolLock(object):

@@ -478,15 +478,15 @@ class ImportWatcher(object):
 def expand_placeholders(value, package_dir, spool):
     if "{" not in value:
         return value
-    import tempfile
-
+    # tempfile.gettempdir()'s first choices, without importing tempfile.
+    tmp = os.environ.get("TMPDIR") or os.environ.get("TEMP") or os.environ.get("TMP") or "/tmp"
     subs = {
         "prefix": getattr(sys, "prefix", ""),
         "base_prefix": getattr(sys, "base_prefix", ""),
         "exec_prefix": getattr(sys, "exec_prefix", ""),
         "base_exec_prefix": getattr(sys, "base_exec_prefix", ""),
         "home": os.path.expanduser("~"),
-        "tmp": tempfile.gettempdir(),
+        "tmp": tmp,
         "package": package_dir,
         "spool": spool,
     }
