@@ -27,7 +27,16 @@ LOCK_TIMEOUT_S = 5.0
 
 
 def encode(record):
-    return json.dumps(record, ensure_ascii=False, separators=(",", ":"))
+    """One line of JSON.  Non-ASCII text stays as it is, except when the
+    record holds strings UTF-8 cannot carry (file names or arguments with
+    undecodable bytes, which Python keeps as lone surrogates): then every
+    non-ASCII character is written as a \\u escape (RFC 8259, section 7)."""
+    line = json.dumps(record, ensure_ascii=False, separators=(",", ":"))
+    try:
+        line.encode("utf-8")
+    except UnicodeEncodeError:
+        line = json.dumps(record, ensure_ascii=True, separators=(",", ":"))
+    return line
 
 
 def endpoint(url):

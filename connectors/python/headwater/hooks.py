@@ -448,16 +448,22 @@ class ImportWatcher(object):
         if spec is None:
             return None
         loader = spec.loader
-        real_exec = getattr(loader, "exec_module", None)
-        if real_exec is None:
+        unbound = getattr(type(loader), "exec_module", None)
+        if unbound is None:
             return spec
+        real_exec = unbound.__get__(loader, type(loader))
 
         def exec_module(module):
-            real_exec(module)
+            # One loader object may serve several modules (a zip importer):
+            # only ``name`` is this step's, and only once.
+            if getattr(module, "__name__", None) != name:
+                return real_exec(module)
             try:
-                del loader.exec_module
+                if vars(loader).get("exec_module") is exec_module:
+                    del loader.exec_module
             except Exception:
                 pass
+            real_exec(module)
             callback(module)
 
         try:

@@ -184,3 +184,37 @@ class Dedup(support.TempDirTest):
 
 if __name__ == "__main__":
     unittest.main()
+
+
+class ImportWatching(support.TempDirTest):
+    def test_modules_from_one_zip_loader(self):
+        # zipimport serves every module of an archive with one loader
+        # object; only the watched module gets wrapped, once.
+        import zipfile
+
+        archive = self.path("libs.zip")
+        with zipfile.ZipFile(archive, "w") as z:
+            z.writestr("polars/__init__.py", "import helperlib\ndef read_csv(source):\n    return open(source).read()\n")
+            z.writestr("helperlib.py", "def read_csv(source):\n    return open(source).read()\n")
+        data = self.write("z.csv", "a\n")
+        script = self.write("z.py", textwrap.dedent("""
+            import sys
+            sys.path.insert(0, sys.argv[1])
+            import polars, helperlib
+            print(hasattr(polars.read_csv, "__wrapped__"), hasattr(helperlib.read_csv, "__wrapped__"))
+            polars.read_csv("z.csv")
+        """))
+        server = self.server()
+        done = self.run_captured(server, script, archive)
+        self.assertEqual(done.stdout, b"True False\n", done.stderr)
+        table = io_table(self.only_record(server))
+        self.assertEqual(table[(data, "read")]["via"], "polars.read_csv")
+
+    def test_undecodable_argument_still_delivered(self):
+        script = self.write("u.py", "pass\n")
+        server = self.server()
+        env = support.with_connector_path(support.capture_env(server.url, self.spool))
+        done = support.run([support.PY.encode(), b"-m", b"headwater", b"run", script.encode(), b"caf\xe9"],
+                           env, cwd=self.dir)
+        self.assertEqual(done.returncode, 0, done.stderr)
+        self.assertEqual(self.only_record(server)["args"], ["caf\udce9"])
