@@ -692,9 +692,15 @@ class Session(object):
             if stamp is not None and produced:
                 ext = os.path.splitext(path)[1].lower()
                 name = hooks.STAMPABLE.get(ext)
-                if name is not None:
+                try:
+                    small = name is not None and os.path.getsize(path) <= hooks.STAMP_MAX_BYTES
+                except OSError:
+                    small = False
+                if small:
                     try:
                         entry["stamped"] = bool(getattr(stamp, name)(path, self.run_id))
+                    except OSError:
+                        pass  # gone, read-only...: left as the script made it
                     except Exception as exc:
                         log.error("stamping " + ext, exc)
             size, sha = sha256_file(path)

@@ -184,6 +184,8 @@ EXCLUDE = [
 
 # Stamped figure formats: file suffix -> stamp function name in stamp.py.
 STAMPABLE = {".png": "stamp_png", ".svg": "stamp_svg", ".pdf": "stamp_pdf"}
+# Larger files are not stamped (stamping reads the whole file).
+STAMP_MAX_BYTES = 256 * 1024 * 1024
 
 # Directory arguments (e.g. a partitioned dataset, copytree) are expanded to
 # the files inside, at most this many per call.

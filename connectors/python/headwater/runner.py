@@ -69,11 +69,17 @@ def run(script, args):
     if old_main is not None and "__annotations__" in vars(old_main):
         main.__annotations__ = {}
 
+    launcher = sys.argv[0] if sys.argv else ""
     sys.argv[:] = [script] + list(args)
     flags = sys.flags
     if not (getattr(flags, "safe_path", False) or flags.isolated):
+        # The entry Python put first for this launcher (the current folder
+        # for -m, the console script's folder for `headwater run`) gives
+        # way to the script's folder.
         folder = os.path.dirname(os.path.realpath(path))
-        if sys.path and (sys.path[0] in ("", os.curdir) or os.path.abspath(sys.path[0]) == os.getcwd()):
+        first = os.path.abspath(sys.path[0]) if sys.path and sys.path[0] else os.getcwd()
+        launcher_dir = os.path.dirname(os.path.realpath(launcher)) if launcher not in ("", "-m", "-c") else None
+        if sys.path and (first == os.getcwd() or first == launcher_dir):
             sys.path[0] = folder
         else:
             sys.path.insert(0, folder)

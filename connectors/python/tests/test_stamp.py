@@ -283,5 +283,25 @@ class StampedByARun(support.TempDirTest):
             self.assertEqual(handle.read(), support.make_pdf())
 
 
+
+class StampEdgeCases(support.TempDirTest):
+    def test_unwritable_output_left_alone_quietly(self):
+        # As if the file could not be opened for update (read-only, gone):
+        # the stamp raises OSError, which is no connector fault.
+        script = self.write("ro.py", textwrap.dedent("""
+            import headwater.stamp
+            def refuse(path, run_id):
+                raise PermissionError(13, "Permission denied", path)
+            headwater.stamp.stamp_png = refuse
+            open("f.png", "wb").write(open("src.png", "rb").read())
+        """))
+        self.write("src.png", support.make_png(2, 2, pixel))
+        server = self.server()
+        done = self.run_captured(server, script)
+        self.assertEqual(done.stderr, b"")
+        entry = io_table(self.only_record(server))[(self.path("f.png"), "write")]
+        self.assertIs(entry["stamped"], False)
+        self.assertEqual(entry["sha256"], support.sha256(support.make_png(2, 2, pixel)))
+
 if __name__ == "__main__":
     unittest.main()
