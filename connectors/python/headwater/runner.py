@@ -13,6 +13,7 @@ exceptions leave the runner unchanged, so the interpreter turns them into the
 same exit status and messages.
 """
 
+import atexit
 import builtins
 import hashlib
 import importlib.machinery
@@ -37,11 +38,20 @@ def _other_threads_running():
     return any(t.is_alive() and not t.daemon and t is not main for t in threading.enumerate())
 
 
-def _finish(session):
-    # Non-daemon threads still running keep writing; the interpreter joins
-    # them before atexit, where the session then finishes instead.
-    if not _other_threads_running():
-        session.finish()
+def _atexit_count():
+    count = getattr(atexit, "_ncallbacks", None)  # CPython
+    return count() if count is not None else None
+
+
+def _finish(session, handlers_before):
+    # The run ends here, unless more may still be written: non-daemon
+    # threads (joined by the interpreter before atexit) or atexit handlers
+    # registered while the script ran (they run before the connector's own,
+    # which was registered first).  Then the session finishes at atexit.
+    after = _atexit_count()
+    if _other_threads_running() or after is None or after > handlers_before:
+        return
+    session.finish()
 
 
 def run(script, args):
@@ -84,26 +94,27 @@ def run(script, args):
         else:
             sys.path.insert(0, folder)
     sys.modules["__main__"] = main
+    handlers = _atexit_count()
 
     try:
         code = compile(source, path, "exec", dont_inherit=True)
     except BaseException as exc:
         tbfilter.script_code = _NoFrames
         session.note_result(1, type(exc).__name__)
-        _finish(session)
+        _finish(session, handlers)
         raise
     tbfilter.script_code = code
     try:
         exec(code, main.__dict__)
     except SystemExit as exc:
         session.note_result(capture.exit_status(exc.code), None)
-        _finish(session)
+        _finish(session, handlers)
         raise
     except BaseException as exc:
         status = capture.KEYBOARD_INTERRUPT_STATUS if isinstance(exc, KeyboardInterrupt) else 1
         session.note_result(status, type(exc).__name__)
-        _finish(session)
+        _finish(session, handlers)
         raise
     session.note_result(0, None)
-    _finish(session)
+    _finish(session, handlers)
     return 0

@@ -269,6 +269,23 @@ class BehaviourUnchanged(support.TempDirTest):
         record = self.only_record(server)
         self.assertIn((self.path("late.txt"), "write"), io_table(record))
 
+    def test_files_written_by_the_scripts_atexit_handlers(self):
+        plain, captured, server = self.both("""
+            import atexit
+            def save():
+                with open("at_exit.txt", "w") as f:
+                    f.write("saved at exit")
+                print("saved")
+            atexit.register(save)
+            raise SystemExit(5)
+        """)
+        self.assertSame(plain, captured)
+        self.assertEqual(captured.returncode, 5)
+        record = self.only_record(server)
+        self.assertEqual(record["exit_code"], 5)
+        entry = io_table(record)[(self.path("at_exit.txt"), "write")]
+        self.assertEqual(entry["sha256"], sha256(b"saved at exit"))
+
     def test_missing_script(self):
         server = self.server()
         done = self.run_captured(server, self.path("absent.py"))

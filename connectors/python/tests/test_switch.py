@@ -98,6 +98,12 @@ class EnvSwitch(support.TempDirTest):
         self.assertEqual(record["exit_code"], 1)
         self.assertEqual(record["exception"], "FileNotFoundError")
 
+    def test_atexit_writes_recorded_in_env_mode(self):
+        script = self.write("a.py", "import atexit\natexit.register(lambda: open('late.txt', 'w').write('z'))\n")
+        server = self.server()
+        support.run([support.PY, script], self.env(server), cwd=self.dir)
+        self.assertIn((self.path("late.txt"), "write"), io_table(self.only_record(server)))
+
     def test_runner_under_the_switch_is_one_run(self):
         script = self.write("s.py", "open('o.txt', 'w').write('1')\n")
         server = self.server()
