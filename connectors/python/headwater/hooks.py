@@ -452,7 +452,7 @@ class ImportWatcher(object):
         loader = spec.loader
         unbound = getattr(type(loader), "exec_module", None)
         if unbound is None:
-            return spec
+            return self._legacy(spec, name, callback)
         real_exec = unbound.__get__(loader, type(loader))
 
         def exec_module(module):
@@ -470,6 +470,34 @@ class ImportWatcher(object):
 
         try:
             loader.exec_module = exec_module
+        except Exception:
+            pass
+        return spec
+
+    @staticmethod
+    def _legacy(spec, name, callback):
+        """Loaders with only load_module (PEP 302; e.g. zipimport before
+        Python 3.10)."""
+        loader = spec.loader
+        unbound = getattr(type(loader), "load_module", None)
+        if unbound is None:
+            return spec
+        real_load = unbound.__get__(loader, type(loader))
+
+        def load_module(fullname):
+            if fullname != name:
+                return real_load(fullname)
+            try:
+                if vars(loader).get("load_module") is load_module:
+                    del loader.load_module
+            except Exception:
+                pass
+            module = real_load(fullname)
+            callback(sys.modules.get(fullname, module))
+            return module
+
+        try:
+            loader.load_module = load_module
         except Exception:
             pass
         return spec
