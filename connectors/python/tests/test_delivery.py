@@ -4,7 +4,6 @@ dropping what the server refuses."""
 import json
 import os
 import stat
-import textwrap
 import threading
 import unittest
 

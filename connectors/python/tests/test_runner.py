@@ -3,9 +3,7 @@ exactly as it does without capture."""
 
 import getpass
 import hashlib
-import json
 import os
-import platform
 import re
 import shutil
 import socket

@@ -4,7 +4,6 @@ tools (Pillow, qpdf, pdfinfo)."""
 
 import os
 import re
-import shutil
 import subprocess
 import textwrap
 import unittest

@@ -3,9 +3,7 @@ headwater_capture.pth when installed), chain-loading another sitecustomize,
 and every Python process of a shell driver being captured."""
 
 import os
-import shutil
 import subprocess
-import sys
 import textwrap
 import unittest
 import zipfile
