@@ -608,7 +608,10 @@ class Session(object):
                 entry["bytes"] = size
                 entry["sha256"] = sha
                 if frame is not None:
+                    # via and frame describe the same call: the last one
+                    # that saw a data frame, else the first.
                     entry["frame"] = frame
+                    entry["via"] = via
 
     def _add_output(self, path, direction, via, frame, produced):
         with self._lock:

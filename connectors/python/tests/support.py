@@ -32,6 +32,14 @@ def require(module_name):
         raise unittest.SkipTest("%s is not installed for %s" % (module_name, PY))
 
 
+def optional(module_name):
+    """Import a library the tests use only when present (never required)."""
+    try:
+        return importlib.import_module(module_name)
+    except ImportError:
+        raise unittest.SkipTest("%s is not installed for %s" % (module_name, PY))
+
+
 # ------------------------------------------------------------------ server
 class RecordServer(object):
     """``POST /api/runs`` on 127.0.0.1 and a free port.  ``statuses`` is a

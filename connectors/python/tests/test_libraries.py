@@ -18,7 +18,11 @@ class Pandas(support.TempDirTest):
         support.require("pandas")
 
     def test_read_and_write_with_frames(self):
+        pd = support.require("pandas")
         src = self.write("in.csv", CSV)
+        # What pandas itself reports (DataFrame.dtypes), in this process.
+        text = "str" if str(pd.read_csv(src).dtypes["b"]) == "str" else "object"  # pandas >= 3: "str"
+        self.assertEqual([str(d) for d in pd.read_csv(src).dtypes], ["int64", text, "float64"])
         script = self.write("p.py", textwrap.dedent("""
             import sys
             import pandas as pd
@@ -39,19 +43,19 @@ class Pandas(support.TempDirTest):
                                       (self.path("out.json"), "write"), (self.path("series.csv"), "write")})
         read = table[(src, "read")]
         self.assertEqual(read["via"], "pandas.read_csv")
-        self.assertEqual(read["frame"], {"columns": ["a", "b", "c"], "dtypes": ["int64", "object", "float64"],
+        self.assertEqual(read["frame"], {"columns": ["a", "b", "c"], "dtypes": ["int64", text, "float64"],
                                          "rows": 3})
         self.assertEqual(read["sha256"], support.sha256(CSV.encode()))
         self.assertEqual(read["bytes"], len(CSV))
         out = table[(self.path("out.csv"), "write")]
         self.assertEqual(out["via"], "pandas.DataFrame.to_csv")
         self.assertEqual(out["frame"], {"columns": ["a", "b", "c", "d"],
-                                        "dtypes": ["int64", "object", "float64", "int64"], "rows": 3})
+                                        "dtypes": ["int64", text, "float64", "int64"], "rows": 3})
         self.assertEqual(out["sha256"], support.file_sha256(self.path("out.csv")))
         self.assertEqual(table[(self.path("out.json"), "write")]["frame"],
                          {"columns": ["a", "d"], "dtypes": ["int64", "int64"], "rows": 3})
         self.assertEqual(table[(self.path("series.csv"), "write")]["frame"],
-                         {"columns": ["b"], "dtypes": ["object"], "rows": 3})
+                         {"columns": ["b"], "dtypes": [text], "rows": 3})
         self.assertEqual(table[(self.path("series.csv"), "write")]["via"], "pandas.Series.to_csv")
 
     def test_same_output_and_warnings_as_without_capture(self):
@@ -76,6 +80,20 @@ class Pandas(support.TempDirTest):
         self.assertEqual(captured.stderr, plain.stderr)
         self.assertEqual(captured.returncode, plain.returncode)
         self.assertEqual(self.only_record(server)["exception"], "FileNotFoundError")
+
+    def test_same_file_read_twice_keeps_via_and_frame_together(self):
+        src = self.write("in.csv", CSV)
+        script = self.write("t.py", textwrap.dedent("""
+            import pandas as pd
+            pd.read_csv("in.csv", usecols=["a"])
+            pd.read_csv("in.csv")
+            open("in.csv").read()
+        """))
+        server = self.server()
+        self.run_captured(server, script)
+        entry = io_table(self.only_record(server))[(src, "read")]
+        self.assertEqual(entry["via"], "pandas.read_csv")
+        self.assertEqual(entry["frame"]["columns"], ["a", "b", "c"])
 
     def test_reads_a_file_object_once(self):
         src = self.write("in.csv", CSV)
@@ -184,6 +202,52 @@ class Matplotlib(support.TempDirTest):
 
                 checked = subprocess.run([support.tool("qpdf"), "--check", p(name)], stdout=subprocess.PIPE)
                 self.assertEqual(checked.returncode, 0, checked.stdout)
+
+
+class ArrowAndPolars(support.TempDirTest):
+    """Optional libraries: run only where they are installed."""
+
+    def test_pyarrow_parquet_and_csv(self):
+        support.optional("pyarrow")
+        src = self.write("in.csv", CSV)
+        script = self.write("a.py", textwrap.dedent("""
+            import pyarrow.csv as pcsv, pyarrow.parquet as pq
+            t = pcsv.read_csv("in.csv")
+            pq.write_table(t, "t.parquet")
+            back = pq.read_table("t.parquet")
+            print(back.num_rows)
+        """))
+        server = self.server()
+        done = self.run_captured(server, script)
+        self.assertEqual(done.stdout, b"3\n", done.stderr)
+        table = io_table(self.only_record(server))
+        p = self.path
+        self.assertEqual(dict((k, v["via"]) for k, v in table.items()), {
+            (src, "read"): "pyarrow.csv.read_csv",
+            (p("t.parquet"), "write"): "pyarrow.parquet.write_table",
+            (p("t.parquet"), "read"): "pyarrow.parquet.read_table",
+        })
+        self.assertEqual(table[(src, "read")]["frame"], {"columns": ["a", "b", "c"],
+                                                         "dtypes": ["int64", "string", "double"], "rows": 3})
+        self.assertEqual(table[(p("t.parquet"), "write")]["sha256"], support.file_sha256(p("t.parquet")))
+
+    def test_polars(self):
+        pl = support.optional("polars")
+        src = self.write("in.csv", CSV)
+        script = self.write("l.py", textwrap.dedent("""
+            import polars as pl
+            df = pl.read_csv("in.csv")
+            df.write_parquet("o.parquet")
+            print(pl.read_parquet("o.parquet").height)
+        """))
+        server = self.server()
+        done = self.run_captured(server, script)
+        self.assertEqual(done.stdout, b"3\n", done.stderr)
+        table = io_table(self.only_record(server))
+        expected = [str(d) for d in pl.read_csv(src).dtypes]
+        self.assertEqual(table[(src, "read")]["frame"], {"columns": ["a", "b", "c"], "dtypes": expected, "rows": 3})
+        self.assertEqual(table[(self.path("o.parquet"), "write")]["via"], "polars.DataFrame.write_parquet")
+        self.assertEqual(table[(self.path("o.parquet"), "read")]["via"], "polars.read_parquet")
 
 
 class LazyPatching(support.TempDirTest):
