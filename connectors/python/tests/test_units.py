@@ -218,3 +218,33 @@ class ImportWatching(support.TempDirTest):
                            env, cwd=self.dir)
         self.assertEqual(done.returncode, 0, done.stderr)
         self.assertEqual(self.only_record(server)["args"], ["caf\udce9"])
+
+
+class Faults(support.TempDirTest):
+    def test_connector_fault_logged_once_script_goes_on(self):
+        self.write("f.txt", "x")
+        script = self.write("fault.py", textwrap.dedent("""
+            import headwater.capture as c
+            def broken(self, *args):
+                raise RuntimeError("simulated connector bug")
+            c.Session._after_read = broken
+            for _ in range(5):
+                print(open("f.txt").read())
+        """))
+        server = self.server()
+        done = self.run_captured(server, script)
+        self.assertEqual(done.returncode, 0)
+        self.assertEqual(done.stdout, b"x\n" * 5)
+        lines = done.stderr.decode().splitlines()
+        self.assertEqual(len(lines), 1, lines)
+        self.assertIn("internal error in recording builtins.open", lines[0])
+        self.assertIn("simulated connector bug", lines[0])
+        self.assertEqual(len(server.records), 1)
+
+    def test_exclude_variable(self):
+        self.write("scratch/a.txt", "a")
+        kept = self.write("data/b.txt", "b")
+        script = self.write("x.py", "open('scratch/a.txt').read()\nopen('data/b.txt').read()\n")
+        server = self.server()
+        self.run_captured(server, script, HEADWATER_EXCLUDE=self.path("scratch"))
+        self.assertEqual(list(io_table(self.only_record(server))), [(kept, "read")])
