@@ -294,6 +294,7 @@ class Session(object):
         self._uncaught = None
         self._exit_args = None
         self._patched = []
+        self._shared = {}
         self._watcher = None
         self._groups = hooks.groups()
         self.excluder = hooks.Excluder(
@@ -345,7 +346,8 @@ class Session(object):
 
     def _patch(self, name, module):
         try:
-            hooks.patch_module(module, self._groups.get(name, ()), self.enter, self.leave, self._patched)
+            hooks.patch_module(module, self._groups.get(name, ()), self.enter, self.leave, self._patched,
+                               self._shared)
         except Exception as exc:
             log.error("patching " + name, exc)
 

@@ -296,8 +296,11 @@ class Unbound(object):
         return repr(self._orig)
 
     def __reduce__(self):
-        # Pickled by name, like the builtin it stands for.
-        return self._orig.__qualname__
+        # Pickled by name, like the builtin it stands for: unpickling looks
+        # the name up again (pkgutil.resolve_name, Python >= 3.9).
+        import pkgutil
+
+        return (pkgutil.resolve_name, ("%s:%s" % (self._group.module, self._group.attribute),))
 
 
 _UNBOUND_CODE = Unbound.__call__.__code__
@@ -369,9 +372,12 @@ def _lookup(owner, name):
     return getattr(owner, name, None)
 
 
-def patch_module(module, module_groups, enter, leave, patched):
+def patch_module(module, module_groups, enter, leave, patched, shared=None):
     """Wrap every attribute of ``module`` named by ``module_groups``.
-    ``patched`` collects (owner, name, original) for unpatching."""
+    ``patched`` collects (owner, name, original, own) for unpatching.
+    ``shared`` maps id(original) to (original, wrapper): one builtin known
+    under two names (``builtins.open`` is ``io.open``) keeps one stand-in,
+    so identity checks still hold."""
     for group in module_groups:
         owner = module
         parts = group.attribute.split(".")
@@ -393,7 +399,17 @@ def patch_module(module, module_groups, enter, leave, patched):
         if getattr(func, _MARK, None) is not None or not callable(func):
             continue
         own = (name in vars(owner)) if isinstance(owner, type) else True
-        wrapper = wrap(func, group, enter, leave)
+        # Builtins only: a Python function shared by two classes (pandas'
+        # NDFrame.to_csv is DataFrame's and Series') gets one wrapper each,
+        # so that each records its own name.
+        share = shared is not None and not hasattr(func, "__get__")
+        known = shared.get(id(func)) if share else None
+        if known is not None and known[0] is func:
+            wrapper = known[1]
+        else:
+            wrapper = wrap(func, group, enter, leave)
+            if share:
+                shared[id(func)] = (func, wrapper)
         try:
             setattr(owner, name, kind(wrapper) if kind else wrapper)
         except (AttributeError, TypeError):

@@ -182,6 +182,19 @@ class BehaviourUnchanged(support.TempDirTest):
         self.assertIn(b"['s.py', 'a', '--b']", plain.stdout)
         self.assertEqual(self.only_record(server)["exit_code"], 0)
 
+    def test_builtins_keep_their_identity(self):
+        plain, captured, server = self.both("""
+            import builtins, io, os, pickle
+            print(open is io.open, builtins.open is io.open, os.remove is os.unlink)
+            print(pickle.loads(pickle.dumps(open)) is open, pickle.loads(pickle.dumps(os.rename)) is os.rename)
+            print(open.__name__, os.rename.__name__, callable(open))
+            class Holder:
+                opener = open        # a builtin stored on a class does not bind
+            print(Holder().opener("s.py").readline().strip())
+        """)
+        self.assertSame(plain, captured)
+        self.assertIn(b"True True False", captured.stdout)
+
     def test_sys_exit_code(self):
         plain, captured, server = self.both("import sys\nprint('x')\nsys.exit(3)\n")
         self.assertSame(plain, captured)
