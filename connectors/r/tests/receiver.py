@@ -2,13 +2,14 @@
 
     python3 receiver.py PORT_FILE BODIES_FILE [STATUS]
 
-Listens on 127.0.0.1 on a free port, writes the port to PORT_FILE, and for
+Listens on 127.0.0.1 on a free port, writes "PORT PID" to PORT_FILE, and for
 every POST appends one line to BODIES_FILE: the request path, the
 Authorization header (or "-") and the body, tab-separated, the body as it
 came (one JSON document, no newlines in it).  Answers STATUS (default 201).
 Stops after 120 seconds.
 """
 
+import os
 import sys
 import threading
 from http.server import BaseHTTPRequestHandler, HTTPServer
@@ -39,8 +40,7 @@ class Handler(BaseHTTPRequestHandler):
 
 server = HTTPServer(("127.0.0.1", 0), Handler)
 with open(port_file + ".tmp", "w") as f:
-    f.write(str(server.server_address[1]))
-import os
+    f.write("%d %d" % (server.server_address[1], os.getpid()))
 os.replace(port_file + ".tmp", port_file)
 timer = threading.Timer(120, server.shutdown)
 timer.daemon = True
