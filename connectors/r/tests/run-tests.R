@@ -337,6 +337,17 @@ rec <- last_record(wd)
 check("sourcing inst/capture.R at the top of a script records the run without the package installed",
       res$status == 0 && identical(res$out, "ok") && !is.null(rec) && !is.null(io_of(rec, file.path(wd, "s.csv"), "write")), res)
 
+# ------------------------------------------------------------- undone at the end
+wd <- new_dir("undo")
+writeLines(c('orig <- list(utils::read.table, base::readRDS, grDevices::png)',
+             'headwater::capture()',
+             'now <- list(utils::read.table, base::readRDS, grDevices::png)',
+             'headwater:::finish_session()',
+             'after <- list(utils::read.table, base::readRDS, grDevices::png)',
+             'cat(!identical(orig, now), identical(orig, after), "\\n")'), file.path(wd, "undo.R"))
+res <- rs("undo.R", wd)
+check("the wrapped functions are the originals again once the run is closed", identical(res$out, "TRUE TRUE "), res)
+
 # ------------------------------------------------------------- hash cap
 wd <- new_dir("cap")
 writeLines(paste(rep("x", 100), collapse = ""), file.path(wd, "big.txt"))
@@ -458,7 +469,7 @@ wd <- new_dir("nostamp")
 writeLines('png("n.png"); plot(1); invisible(dev.off())', file.path(wd, "n.R"))
 res <- rs(c("-e", (run_expr("n.R"))), wd, env = c(HEADWATER_STAMP = "0"))
 e <- io_of(last_record(wd), file.path(wd, "n.png"), "write")
-pd <- new_dir("nostamp-plain"); file.copy(file.path(wd, "n.R"), pd)
+pd <- new_dir("nostamp-plain"); invisible(file.copy(file.path(wd, "n.R"), pd))
 plainpng <- rs("n.R", pd)
 check("HEADWATER_STAMP=0: the figure is recorded, not stamped, byte for byte what R wrote",
       !is.null(e) && isFALSE(e$stamped) &&
