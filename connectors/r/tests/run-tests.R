@@ -337,6 +337,21 @@ rec <- last_record(wd)
 check("sourcing inst/capture.R at the top of a script records the run without the package installed",
       res$status == 0 && identical(res$out, "ok") && !is.null(rec) && !is.null(io_of(rec, file.path(wd, "s.csv"), "write")), res)
 
+# ------------------------------------------------------------- names and non-files
+wd <- new_dir("names")
+writeLines(c('write.csv(data.frame("caf\u00e9 q\\\\" = 1, check.names = FALSE), "donn\u00e9es \u4e2d.csv", row.names = FALSE)',
+             'x <- read.csv(text = "a,b\n1,2")',
+             'y <- read.table(textConnection("p q\n1 2"), header = TRUE)',
+             'cat(ncol(x), ncol(y), "\\n")'), file.path(wd, "names.R"), useBytes = TRUE)
+res <- rs(c("-e", run_expr("names.R")), wd)
+rec <- last_record(wd)
+p <- file.path(wd, "donn\u00e9es \u4e2d.csv")
+e <- io_of(rec, p, "write")
+check("a non-ASCII file name and column name travel as UTF-8 in the JSON record",
+      res$status == 0 && !is.null(e) && identical(unlist(e$frame$columns), "caf\u00e9 q\\") && identical(e$sha256, sha256sum(p)), list(res, rec$io))
+check("read.csv(text=) and text connections are not files: nothing recorded, nothing on stderr",
+      length(rec$io) == 1 && identical(res$err, "") && identical(res$out, "2 2 "), list(res, rec$io))
+
 # ------------------------------------------------------------- undone at the end
 wd <- new_dir("undo")
 writeLines(c('orig <- list(utils::read.table, base::readRDS, grDevices::png)',
