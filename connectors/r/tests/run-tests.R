@@ -294,6 +294,11 @@ check("HEADWATER_CAPTURE=1 with the .Rprofile line: output and status unchanged 
 check("HEADWATER_CAPTURE=1 records the run; without it the profile line records nothing",
       length(spool_records(wd)) == n_before + 1 && identical(last_record(wd)$script$path, file.path(wd, "same.R")))
 
+n_before <- length(spool_records(wd))
+both <- rs(c("-e", run_expr("same.R")), wd, env = c(HEADWATER_CAPTURE = "1"), profile = file.path(root, "auto-profile.R"))
+check("run() under HEADWATER_CAPTURE=1 with the profile line gives exactly one record",
+      both$status == 0 && length(spool_records(wd)) == n_before + 1, both)
+
 # ------------------------------------------------------------- errors
 wd <- new_dir("errors")
 writeLines(c(
