@@ -1,0 +1,196 @@
+package org.headwater.lineage;
+
+import java.util.ArrayList;
+import java.util.LinkedHashSet;
+import java.util.List;
+import java.util.Set;
+import org.headwater.ingest.Observation.ColumnRole;
+
+/**
+ * The graph's data: dataset and column nodes, dataset and column edges, and adjacency in both directions
+ * for both levels. Not thread-safe; {@link LineageGraph} guards it with a read-write lock.
+ *
+ * <p>Built in two phases when loaded in bulk (tables first, then every adjacency list sized exactly),
+ * then kept current one edge at a time.
+ */
+final class GraphIndex {
+    final DatasetNodes nodes;
+    final ColumnNodes columns;
+    final EdgeTable edges;
+    final ColumnEdgeTable columnEdges;
+    final Adjacency out = new Adjacency();
+    final Adjacency in = new Adjacency();
+    final Adjacency columnOut = new Adjacency();
+    final Adjacency columnIn = new Adjacency();
+    private final Adjacency.Order edgeOrder;
+    private final Adjacency.Order columnOrder;
+
+    GraphIndex(int expectedDatasets, int expectedEdges, int expectedColumnEdges) {
+        nodes = new DatasetNodes(expectedDatasets);
+        columns = new ColumnNodes(expectedColumnEdges);
+        edges = new EdgeTable(expectedEdges);
+        columnEdges = new ColumnEdgeTable(expectedColumnEdges);
+        edgeOrder = edges::after;
+        columnOrder = (a, b) -> edges.after(columnEdges.owner(a), columnEdges.owner(b));
+    }
+
+    void putDataset(DatasetRow row) {
+        nodes.put(row.id(), row.kind(), row.sourceId());
+    }
+
+    // ---- bulk loading -------------------------------------------------------------------------------
+
+    /** Records an edge without linking it; {@link #link()} builds every adjacency list at the end. */
+    void bulkEdge(EdgeRow row) {
+        edges.add(row, nodes.ensure(row.sourceDatasetId()), nodes.ensure(row.targetDatasetId()));
+    }
+
+    /** Records the column flows of one edge already recorded; flows of edges not in the graph are ignored. */
+    void bulkFlows(List<ColumnFlowRow> flows) {
+        int slot = edges.slot(flows.get(0).edgeId());
+        if (slot >= 0) {
+            addColumnEdges(slot, flows, false);
+        }
+    }
+
+    /** Sizes every adjacency list to its degree and fills it in slot order, which bulk loading made id order. */
+    void link() {
+        out.ensureNodes(nodes.count());
+        in.ensureNodes(nodes.count());
+        int[] outDegree = new int[nodes.count()];
+        int[] inDegree = new int[nodes.count()];
+        for (int slot = 0; slot < edges.highWater(); slot++) {
+            if (edges.live(slot)) {
+                outDegree[edges.from(slot)]++;
+                inDegree[edges.to(slot)]++;
+            }
+        }
+        for (int node = 0; node < nodes.count(); node++) {
+            out.reserve(node, outDegree[node]);
+            in.reserve(node, inDegree[node]);
+        }
+        for (int slot = 0; slot < edges.highWater(); slot++) {
+            if (edges.live(slot)) {
+                out.append(edges.from(slot), slot);
+                in.append(edges.to(slot), slot);
+            }
+        }
+        columnOut.ensureNodes(columns.count());
+        columnIn.ensureNodes(columns.count());
+        int[] columnOutDegree = new int[columns.count()];
+        int[] columnInDegree = new int[columns.count()];
+        for (int slot = 0; slot < columnEdges.highWater(); slot++) {
+            if (columnEdges.isLive(slot)) {
+                columnOutDegree[columnEdges.from(slot)]++;
+                columnInDegree[columnEdges.to(slot)]++;
+            }
+        }
+        for (int node = 0; node < columns.count(); node++) {
+            columnOut.reserve(node, columnOutDegree[node]);
+            columnIn.reserve(node, columnInDegree[node]);
+        }
+        // Column flows arrive grouped by edge id, so column-edge slots are in edge-id order too.
+        for (int slot = 0; slot < columnEdges.highWater(); slot++) {
+            if (columnEdges.isLive(slot)) {
+                columnOut.append(columnEdges.from(slot), slot);
+                columnIn.append(columnEdges.to(slot), slot);
+            }
+        }
+    }
+
+    // ---- keeping current ----------------------------------------------------------------------------
+
+    /**
+     * Adds the current version of an edge, replacing an earlier version of the same edge: the store closes
+     * the old row and inserts a new one under a new id, and only the new id is announced.
+     */
+    void putEdge(EdgeRow row, List<ColumnFlowRow> flows) {
+        removeEdge(row.id());
+        int fromNode = nodes.ensure(row.sourceDatasetId());
+        int toNode = nodes.ensure(row.targetDatasetId());
+        out.ensureNodes(nodes.count());
+        in.ensureNodes(nodes.count());
+        int slot = edges.add(row, fromNode, toNode);
+        for (int superseded : supersededBy(slot)) {
+            removeSlot(superseded);
+        }
+        out.insert(fromNode, slot, edgeOrder);
+        in.insert(toNode, slot, edgeOrder);
+        addColumnEdges(slot, flows, true);
+    }
+
+    private List<Integer> supersededBy(int slot) {
+        List<Integer> same = new ArrayList<>();
+        int fromNode = edges.from(slot);
+        int[] list = out.slots(fromNode);
+        for (int i = 0; i < out.size(fromNode); i++) {
+            if (list[i] != slot && edges.sameKey(list[i], slot)) {
+                same.add(list[i]);
+            }
+        }
+        return same;
+    }
+
+    /** Removes an edge and its column edges; an id the graph does not hold is ignored. */
+    void removeEdge(long edgeId) {
+        int slot = edges.slot(edgeId);
+        if (slot >= 0) {
+            removeSlot(slot);
+        }
+    }
+
+    private void removeSlot(int slot) {
+        out.remove(edges.from(slot), slot);
+        in.remove(edges.to(slot), slot);
+        int first = edges.firstColumnEdge(slot);
+        for (int c = first; c < first + edges.columnEdgeCount(slot); c++) {
+            columnOut.remove(columnEdges.from(c), c);
+            columnIn.remove(columnEdges.to(c), c);
+            columnEdges.kill(c);
+        }
+        edges.release(slot);
+    }
+
+    /**
+     * Turns an edge's column flows into column edges. A flow with a target column is one edge. An
+     * influencing flow without one decides which rows the target holds, so it reaches every column the
+     * same edge writes; when the edge writes no named column it reaches the target as a whole.
+     */
+    private void addColumnEdges(int slot, List<ColumnFlowRow> flows, boolean linkNow) {
+        if (flows == null || flows.isEmpty()) {
+            return;
+        }
+        int fromNode = edges.from(slot);
+        int toNode = edges.to(slot);
+        Set<String> written = new LinkedHashSet<>();
+        for (ColumnFlowRow flow : flows) {
+            if (flow.targetColumn() != null) {
+                written.add(flow.targetColumn());
+            }
+        }
+        int first = columnEdges.highWater();
+        for (ColumnFlowRow flow : flows) {
+            int source = columns.ensure(fromNode, flow.sourceColumn());
+            if (flow.targetColumn() != null) {
+                columnEdge(source, columns.ensure(toNode, flow.targetColumn()), flow.role(), slot, linkNow);
+            } else if (flow.role() == ColumnRole.INFLUENCING && !written.isEmpty()) {
+                for (String target : written) {
+                    columnEdge(source, columns.ensure(toNode, target), ColumnRole.INFLUENCING, slot, linkNow);
+                }
+            } else {
+                columnEdge(source, columns.ensure(toNode, null), flow.role(), slot, linkNow);
+            }
+        }
+        edges.columnEdges(slot, first, columnEdges.highWater() - first);
+    }
+
+    private void columnEdge(int source, int target, ColumnRole role, int owner, boolean linkNow) {
+        int c = columnEdges.add(source, target, role, owner);
+        if (linkNow) {
+            columnOut.ensureNodes(columns.count());
+            columnIn.ensureNodes(columns.count());
+            columnOut.insert(source, c, columnOrder);
+            columnIn.insert(target, c, columnOrder);
+        }
+    }
+}
