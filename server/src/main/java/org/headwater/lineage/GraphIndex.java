@@ -1,8 +1,10 @@
 package org.headwater.lineage;
 
 import java.util.ArrayList;
+import java.util.HashMap;
 import java.util.LinkedHashSet;
 import java.util.List;
+import java.util.Map;
 import java.util.Set;
 import org.headwater.ingest.Observation.ColumnRole;
 
@@ -24,6 +26,8 @@ final class GraphIndex {
     final Adjacency columnIn = new Adjacency();
     private final Adjacency.Order edgeOrder;
     private final Adjacency.Order columnOrder;
+    /** Edge slot to its influencing flows without a target column; few edges have any. */
+    private final Map<Integer, Influence> influence = new HashMap<>();
 
     GraphIndex(int expectedDatasets, int expectedEdges, int expectedColumnEdges) {
         nodes = new DatasetNodes(expectedDatasets);
@@ -53,7 +57,10 @@ final class GraphIndex {
         }
     }
 
-    /** Sizes every adjacency list to its degree and fills it in slot order, which bulk loading made id order. */
+    /**
+     * Sizes every adjacency list to its degree and fills it in slot order, which bulk loading made id
+     * order; then spreads influencing flows, which needs the in-lists.
+     */
     void link() {
         out.ensureNodes(nodes.count());
         in.ensureNodes(nodes.count());
@@ -96,6 +103,7 @@ final class GraphIndex {
                 columnIn.append(columnEdges.to(slot), slot);
             }
         }
+        spreadAllInfluence();
     }
 
     // ---- keeping current ----------------------------------------------------------------------------
@@ -117,6 +125,7 @@ final class GraphIndex {
         out.insert(fromNode, slot, edgeOrder);
         in.insert(toNode, slot, edgeOrder);
         addColumnEdges(slot, flows, true);
+        respreadGroup(toNode, edges.script(slot));
     }
 
     private List<Integer> supersededBy(int slot) {
@@ -140,21 +149,28 @@ final class GraphIndex {
     }
 
     private void removeSlot(int slot) {
+        int target = edges.to(slot);
+        long script = edges.script(slot);
         out.remove(edges.from(slot), slot);
-        in.remove(edges.to(slot), slot);
+        in.remove(target, slot);
         int first = edges.firstColumnEdge(slot);
         for (int c = first; c < first + edges.columnEdgeCount(slot); c++) {
-            columnOut.remove(columnEdges.from(c), c);
-            columnIn.remove(columnEdges.to(c), c);
-            columnEdges.kill(c);
+            unlinkColumnEdge(c);
+        }
+        Influence spread = influence.remove(slot);
+        if (spread != null) {
+            for (int c = spread.first; c < spread.first + spread.count; c++) {
+                unlinkColumnEdge(c);
+            }
         }
         edges.release(slot);
+        respreadGroup(target, script);
     }
 
     /**
-     * Turns an edge's column flows into column edges. A flow with a target column is one edge. An
-     * influencing flow without one decides which rows the target holds, so it reaches every column the
-     * same edge writes; when the edge writes no named column it reaches the target as a whole.
+     * Turns an edge's column flows into column edges. A flow with a target column is one edge; a flow
+     * without one that is not influencing reaches the target as a whole. Influencing flows without a
+     * target column are kept aside and spread by {@link #spreadInfluence}.
      */
     private void addColumnEdges(int slot, List<ColumnFlowRow> flows, boolean linkNow) {
         if (flows == null || flows.isEmpty()) {
@@ -162,26 +178,96 @@ final class GraphIndex {
         }
         int fromNode = edges.from(slot);
         int toNode = edges.to(slot);
-        Set<String> written = new LinkedHashSet<>();
-        for (ColumnFlowRow flow : flows) {
-            if (flow.targetColumn() != null) {
-                written.add(flow.targetColumn());
-            }
-        }
+        List<Integer> influencers = new ArrayList<>();
         int first = columnEdges.highWater();
         for (ColumnFlowRow flow : flows) {
             int source = columns.ensure(fromNode, flow.sourceColumn());
             if (flow.targetColumn() != null) {
                 columnEdge(source, columns.ensure(toNode, flow.targetColumn()), flow.role(), slot, linkNow);
-            } else if (flow.role() == ColumnRole.INFLUENCING && !written.isEmpty()) {
-                for (String target : written) {
-                    columnEdge(source, columns.ensure(toNode, target), ColumnRole.INFLUENCING, slot, linkNow);
-                }
+            } else if (flow.role() == ColumnRole.INFLUENCING) {
+                influencers.add(source);
             } else {
                 columnEdge(source, columns.ensure(toNode, null), flow.role(), slot, linkNow);
             }
         }
         edges.columnEdges(slot, first, columnEdges.highWater() - first);
+        if (!influencers.isEmpty()) {
+            influence.put(slot, new Influence(influencers.stream().mapToInt(Integer::intValue).toArray()));
+        }
+    }
+
+    /** After bulk linking: spreads every influencing flow, now that the in-lists tell which edges write a target. */
+    private void spreadAllInfluence() {
+        for (int slot : List.copyOf(influence.keySet())) {
+            spreadInfluence(slot);
+        }
+    }
+
+    /** Re-spreads the influencing flows of every edge that one script writes into one target. */
+    private void respreadGroup(int targetNode, long script) {
+        int[] list = in.slots(targetNode);
+        int size = in.size(targetNode);
+        List<Integer> group = new ArrayList<>();
+        for (int i = 0; i < size; i++) {
+            if (edges.script(list[i]) == script && influence.containsKey(list[i])) {
+                group.add(list[i]);
+            }
+        }
+        group.forEach(this::spreadInfluence);
+    }
+
+    /**
+     * An influencing column without a target column (a filter, a join key, a grouping) decides which rows
+     * the target holds, so it reaches every column the same script writes into that target, whichever
+     * input the written column comes from: one statement's join key filters the rows of all its outputs.
+     * When the script writes no named column of the target, it reaches the target as a whole.
+     */
+    private void spreadInfluence(int slot) {
+        Influence spread = influence.get(slot);
+        int[] targets = writtenBy(edges.to(slot), edges.script(slot));
+        if (targets.length == 0) {
+            targets = new int[] {columns.ensure(edges.to(slot), null)};
+        }
+        if (spread.covers(columnEdges, targets)) {
+            return;
+        }
+        for (int c = spread.first; c < spread.first + spread.count; c++) {
+            unlinkColumnEdge(c);
+        }
+        spread.first = columnEdges.highWater();
+        for (int source : spread.sources) {
+            for (int target : targets) {
+                columnEdge(source, target, ColumnRole.INFLUENCING, slot, true);
+            }
+        }
+        spread.count = columnEdges.highWater() - spread.first;
+    }
+
+    /** Named target columns that edges of {@code script} into {@code targetNode} write, in edge-id order. */
+    private int[] writtenBy(int targetNode, long script) {
+        Set<Integer> written = new LinkedHashSet<>();
+        int[] list = in.slots(targetNode);
+        int size = in.size(targetNode);
+        for (int i = 0; i < size; i++) {
+            int slot = list[i];
+            if (edges.script(slot) != script) {
+                continue;
+            }
+            int first = edges.firstColumnEdge(slot);
+            for (int c = first; c < first + edges.columnEdgeCount(slot); c++) {
+                int target = columnEdges.to(c);
+                if (columns.column(target) != null) {
+                    written.add(target);
+                }
+            }
+        }
+        return written.stream().mapToInt(Integer::intValue).toArray();
+    }
+
+    private void unlinkColumnEdge(int c) {
+        columnOut.remove(columnEdges.from(c), c);
+        columnIn.remove(columnEdges.to(c), c);
+        columnEdges.kill(c);
     }
 
     private void columnEdge(int source, int target, ColumnRole role, int owner, boolean linkNow) {
@@ -191,6 +277,30 @@ final class GraphIndex {
             columnIn.ensureNodes(columns.count());
             columnOut.insert(source, c, columnOrder);
             columnIn.insert(target, c, columnOrder);
+        }
+    }
+
+    /** The influencing flows of one edge that name no target column, and the column edges they were spread to. */
+    private static final class Influence {
+        final int[] sources;
+        int first;
+        int count;
+
+        Influence(int[] sources) {
+            this.sources = sources;
+        }
+
+        /** Whether the current spread already reaches exactly {@code targets}, in order, from every source. */
+        boolean covers(ColumnEdgeTable columnEdges, int[] targets) {
+            if (count != sources.length * targets.length) {
+                return false;
+            }
+            for (int i = 0; i < count; i++) {
+                if (columnEdges.to(first + i) != targets[i % targets.length]) {
+                    return false;
+                }
+            }
+            return true;
         }
     }
 }
