@@ -30,15 +30,12 @@ import org.junit.jupiter.api.io.TempDir;
 // The walks only read, so one catalog serves the whole class.
 @TestInstance(TestInstance.Lifecycle.PER_CLASS)
 class DatasetWalkTest {
-    @TempDir
-    Path temp;
-
     private Catalog catalog;
     private LineageFixture f;
     private LineageGraph graph;
 
     @BeforeAll
-    void open() {
+    void open(@TempDir Path temp) {
         catalog = TestCatalogs.fresh(temp);
         f = LineageFixture.ingest(catalog);
         graph = LineageGraph.load(catalog.store());
