@@ -41,9 +41,9 @@ final class BreadthFirst {
             if (next > maxDepth) {
                 break;
             }
-            int[] slots = adjacency.slots(node);
-            int size = adjacency.size(node);
-            for (int i = 0; i < size; i++) {
+            int[] slots = adjacency.array(node);
+            int end = adjacency.offset(node) + adjacency.size(node);
+            for (int i = adjacency.offset(node); i < end; i++) {
                 int slot = slots[i];
                 int to = far[slot];
                 if (stamp[to] == generation) {

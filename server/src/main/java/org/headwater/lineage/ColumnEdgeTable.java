@@ -43,6 +43,15 @@ final class ColumnEdgeTable {
         return count++;
     }
 
+    /** Drops the growth room left after bulk loading. */
+    void trim() {
+        int capacity = Math.max(16, count);
+        from = Arrays.copyOf(from, capacity);
+        to = Arrays.copyOf(to, capacity);
+        owner = Arrays.copyOf(owner, capacity);
+        roles = Arrays.copyOf(roles, capacity);
+    }
+
     void kill(int slot) {
         from[slot] = -1;
         to[slot] = -1;

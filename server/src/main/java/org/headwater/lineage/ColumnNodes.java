@@ -27,6 +27,13 @@ final class ColumnNodes {
         return count;
     }
 
+    /** Drops the growth room left after bulk loading. */
+    void trim() {
+        int capacity = Math.max(16, count);
+        datasets = Arrays.copyOf(datasets, capacity);
+        nameIds = Arrays.copyOf(nameIds, capacity);
+    }
+
     /** The node of a column, or -1 when no column edge ever touched it. */
     int node(int datasetNode, String column) {
         int name = column == null ? WHOLE : names.find(column);

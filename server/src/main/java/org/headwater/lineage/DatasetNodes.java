@@ -26,6 +26,14 @@ final class DatasetNodes {
         return count;
     }
 
+    /** Drops the growth room left after bulk loading. */
+    void trim() {
+        int capacity = Math.max(16, count);
+        ids = Arrays.copyOf(ids, capacity);
+        kinds = Arrays.copyOf(kinds, capacity);
+        sources = Arrays.copyOf(sources, capacity);
+    }
+
     /** The node of a dataset, or -1 when the graph has never heard of it. */
     int node(long datasetId) {
         return byId.get(datasetId);

@@ -10,17 +10,22 @@ import org.headwater.model.Evidence;
  */
 final class EdgeTable {
     static final long NO_SCRIPT = Long.MIN_VALUE;
+    private static final int NONE = -1;
     static final int NO_RUN = -1;
     private static final Evidence[] EVIDENCE = Evidence.values();
 
     private final LongIntMap byId;
     private final Names runs = new Names();
+    private final LongIntMap scriptIndex = new LongIntMap(64);
+    private long[] scriptIds = new long[64];
+    private int scriptCount;
     private long[] ids;
     private int[] from;
     private int[] to;
     private byte[] evidence;
     private float[] confidence;
-    private long[] scripts;
+    /** Index into {@link #scriptIds}: a catalog has far fewer scripts than edges. */
+    private int[] scripts;
     private int[] runIds;
     private int[] firstColumnEdge;
     private int[] columnEdgeCount;
@@ -39,7 +44,7 @@ final class EdgeTable {
         to = to == null ? new int[capacity] : Arrays.copyOf(to, capacity);
         evidence = evidence == null ? new byte[capacity] : Arrays.copyOf(evidence, capacity);
         confidence = confidence == null ? new float[capacity] : Arrays.copyOf(confidence, capacity);
-        scripts = scripts == null ? new long[capacity] : Arrays.copyOf(scripts, capacity);
+        scripts = scripts == null ? new int[capacity] : Arrays.copyOf(scripts, capacity);
         runIds = runIds == null ? new int[capacity] : Arrays.copyOf(runIds, capacity);
         firstColumnEdge = firstColumnEdge == null ? new int[capacity] : Arrays.copyOf(firstColumnEdge, capacity);
         columnEdgeCount = columnEdgeCount == null ? new int[capacity] : Arrays.copyOf(columnEdgeCount, capacity);
@@ -74,12 +79,41 @@ final class EdgeTable {
         to[slot] = toNode;
         evidence[slot] = (byte) row.evidence().ordinal();
         confidence[slot] = (float) row.confidence();
-        scripts[slot] = row.scriptId() == null ? NO_SCRIPT : row.scriptId();
+        scripts[slot] = row.scriptId() == null ? NONE : internScript(row.scriptId());
         runIds[slot] = row.runId() == null ? NO_RUN : runs.intern(row.runId());
         firstColumnEdge[slot] = 0;
         columnEdgeCount[slot] = 0;
         byId.put(row.id(), slot);
         return slot;
+    }
+
+    private int internScript(long scriptId) {
+        int index = scriptIndex.get(scriptId);
+        if (index < 0) {
+            index = scriptCount++;
+            if (index == scriptIds.length) {
+                scriptIds = Arrays.copyOf(scriptIds, index * 2);
+            }
+            scriptIds[index] = scriptId;
+            scriptIndex.put(scriptId, index);
+        }
+        return index;
+    }
+
+    /** Drops the growth room left after bulk loading. */
+    void trim() {
+        int capacity = Math.max(16, highWater);
+        if (capacity < ids.length) {
+            ids = Arrays.copyOf(ids, capacity);
+            from = Arrays.copyOf(from, capacity);
+            to = Arrays.copyOf(to, capacity);
+            evidence = Arrays.copyOf(evidence, capacity);
+            confidence = Arrays.copyOf(confidence, capacity);
+            scripts = Arrays.copyOf(scripts, capacity);
+            runIds = Arrays.copyOf(runIds, capacity);
+            firstColumnEdge = Arrays.copyOf(firstColumnEdge, capacity);
+            columnEdgeCount = Arrays.copyOf(columnEdgeCount, capacity);
+        }
     }
 
     void release(int slot) {
@@ -129,8 +163,10 @@ final class EdgeTable {
         return confidence[slot];
     }
 
+    /** The script's store id, or {@link #NO_SCRIPT}. */
     long script(int slot) {
-        return scripts[slot];
+        int index = scripts[slot];
+        return index == NONE ? NO_SCRIPT : scriptIds[index];
     }
 
     String run(int slot) {

@@ -58,12 +58,10 @@ final class GraphIndex {
     }
 
     /**
-     * Sizes every adjacency list to its degree and fills it in slot order, which bulk loading made id
-     * order; then spreads influencing flows, which needs the in-lists.
+     * Lays out every adjacency list and fills it in slot order, which bulk loading made id order; trims the
+     * tables to what was loaded; then spreads influencing flows, which needs the in-lists.
      */
     void link() {
-        out.ensureNodes(nodes.count());
-        in.ensureNodes(nodes.count());
         int[] outDegree = new int[nodes.count()];
         int[] inDegree = new int[nodes.count()];
         for (int slot = 0; slot < edges.highWater(); slot++) {
@@ -72,18 +70,14 @@ final class GraphIndex {
                 inDegree[edges.to(slot)]++;
             }
         }
-        for (int node = 0; node < nodes.count(); node++) {
-            out.reserve(node, outDegree[node]);
-            in.reserve(node, inDegree[node]);
-        }
+        out.layout(nodes.count(), outDegree);
+        in.layout(nodes.count(), inDegree);
         for (int slot = 0; slot < edges.highWater(); slot++) {
             if (edges.live(slot)) {
                 out.append(edges.from(slot), slot);
                 in.append(edges.to(slot), slot);
             }
         }
-        columnOut.ensureNodes(columns.count());
-        columnIn.ensureNodes(columns.count());
         int[] columnOutDegree = new int[columns.count()];
         int[] columnInDegree = new int[columns.count()];
         for (int slot = 0; slot < columnEdges.highWater(); slot++) {
@@ -92,10 +86,8 @@ final class GraphIndex {
                 columnInDegree[columnEdges.to(slot)]++;
             }
         }
-        for (int node = 0; node < columns.count(); node++) {
-            columnOut.reserve(node, columnOutDegree[node]);
-            columnIn.reserve(node, columnInDegree[node]);
-        }
+        columnOut.layout(columns.count(), columnOutDegree);
+        columnIn.layout(columns.count(), columnInDegree);
         // Column flows arrive grouped by edge id, so column-edge slots are in edge-id order too.
         for (int slot = 0; slot < columnEdges.highWater(); slot++) {
             if (columnEdges.isLive(slot)) {
@@ -103,6 +95,10 @@ final class GraphIndex {
                 columnIn.append(columnEdges.to(slot), slot);
             }
         }
+        nodes.trim();
+        columns.trim();
+        edges.trim();
+        columnEdges.trim();
         spreadAllInfluence();
     }
 
@@ -131,8 +127,9 @@ final class GraphIndex {
     private List<Integer> supersededBy(int slot) {
         List<Integer> same = new ArrayList<>();
         int fromNode = edges.from(slot);
-        int[] list = out.slots(fromNode);
-        for (int i = 0; i < out.size(fromNode); i++) {
+        int[] list = out.array(fromNode);
+        int end = out.offset(fromNode) + out.size(fromNode);
+        for (int i = out.offset(fromNode); i < end; i++) {
             if (list[i] != slot && edges.sameKey(list[i], slot)) {
                 same.add(list[i]);
             }
@@ -205,10 +202,10 @@ final class GraphIndex {
 
     /** Re-spreads the influencing flows of every edge that one script writes into one target. */
     private void respreadGroup(int targetNode, long script) {
-        int[] list = in.slots(targetNode);
-        int size = in.size(targetNode);
+        int[] list = in.array(targetNode);
+        int end = in.offset(targetNode) + in.size(targetNode);
         List<Integer> group = new ArrayList<>();
-        for (int i = 0; i < size; i++) {
+        for (int i = in.offset(targetNode); i < end; i++) {
             if (edges.script(list[i]) == script && influence.containsKey(list[i])) {
                 group.add(list[i]);
             }
@@ -246,9 +243,9 @@ final class GraphIndex {
     /** Named target columns that edges of {@code script} into {@code targetNode} write, in edge-id order. */
     private int[] writtenBy(int targetNode, long script) {
         Set<Integer> written = new LinkedHashSet<>();
-        int[] list = in.slots(targetNode);
-        int size = in.size(targetNode);
-        for (int i = 0; i < size; i++) {
+        int[] list = in.array(targetNode);
+        int end = in.offset(targetNode) + in.size(targetNode);
+        for (int i = in.offset(targetNode); i < end; i++) {
             int slot = list[i];
             if (edges.script(slot) != script) {
                 continue;

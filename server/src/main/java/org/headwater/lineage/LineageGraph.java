@@ -48,10 +48,11 @@ public final class LineageGraph implements ChangeListener {
     }
 
     private static GraphIndex build(LineageLoader loader, Instant asOf) {
+        // Tables start small, grow by half and are trimmed once loaded: no counting queries first.
         GraphIndex index = new GraphIndex(1024, 1024, 1024);
         loader.datasets(index::putDataset);
         loader.edges(asOf, index::bulkEdge);
-        loader.columnFlows(asOf, index::bulkFlows);
+        loader.columnFlows(index::bulkFlows);
         index.link();
         return index;
     }

@@ -77,15 +77,14 @@ public final class LineageLoader {
     }
 
     /**
-     * Column flows of the edges in force at {@code asOf}, one list per edge, edges in id order and flows
-     * in the order they were recorded (the order influencing flows are spread over target columns).
+     * Every column flow the store holds, of every edge version, one list per edge version in id order,
+     * flows in the order they were recorded (the order influencing flows are spread over target columns).
+     * A bulk load keeps the lists of the edge versions it loaded: that picks the flows in force at any
+     * instant without joining the edge table, which would read the same rows and cost a lookup each.
      */
-    public void columnFlows(Instant asOf, Consumer<List<ColumnFlowRow>> sink) {
+    public void columnFlows(Consumer<List<ColumnFlowRow>> sink) {
         var c = COLUMN_LINEAGE;
-        var e = LINEAGE_EDGE;
-        try (var cursor = db.select(c.EDGE_ID, c.SOURCE_COLUMN, c.TARGET_COLUMN, c.ROLE)
-                .from(c).join(e).on(e.ID.eq(c.EDGE_ID))
-                .where(Validity.at(e.VALID_FROM, e.VALID_TO, asOf))
+        try (var cursor = db.select(c.EDGE_ID, c.SOURCE_COLUMN, c.TARGET_COLUMN, c.ROLE).from(c)
                 .orderBy(c.EDGE_ID, c.ID)
                 .fetchSize(FETCH_SIZE).fetchLazy()) {
             List<ColumnFlowRow> group = new ArrayList<>();

@@ -100,6 +100,10 @@ final class Trace {
 
     /** The shortest decimal that reads back as the stored float: 0.9, not 0.8999999761581421. */
     double confidence(int position) {
-        return Double.parseDouble(Float.toString(confidence[position]));
+        float stored = confidence[position];
+        // Catalog confidences have few decimals; in [0, 1] two 4-decimal values never share a float, so a
+        // 4-decimal value that reads back as the float is the shortest one. Float.toString costs far more.
+        double rounded = Math.rint(stored * 10_000.0) / 10_000.0;
+        return (float) rounded == stored ? rounded : Double.parseDouble(Float.toString(stored));
     }
 }
