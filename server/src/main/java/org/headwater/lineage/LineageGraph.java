@@ -1,0 +1,194 @@
+package org.headwater.lineage;
+
+import java.time.Instant;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Map;
+import java.util.Objects;
+import java.util.TreeSet;
+import java.util.concurrent.locks.ReentrantReadWriteLock;
+import java.util.function.Function;
+import org.headwater.ingest.Change;
+import org.headwater.ingest.ChangeListener;
+import org.headwater.store.Store;
+
+/**
+ * The lineage of the whole catalog in memory, for answers in microseconds: datasets and columns as int
+ * nodes, edges as parallel arrays, adjacency both ways. The store stays the truth: the graph is built
+ * from it at start and, registered as an ingestor listener, re-reads the edges each committed batch
+ * changed. A graph loaded {@linkplain #loadAsOf as of an instant} is a frozen picture of the past.
+ *
+ * <p>Walks may run concurrently with each other; a batch's changes are applied under a write lock.
+ */
+public final class LineageGraph implements ChangeListener {
+    private final LineageLoader loader;
+    private final Instant asOf;
+    private final GraphIndex index;
+    private final ReentrantReadWriteLock lock = new ReentrantReadWriteLock();
+    private final ScratchPool datasetScratch = new ScratchPool();
+    private final ScratchPool columnScratch = new ScratchPool();
+
+    private LineageGraph(LineageLoader loader, Instant asOf, GraphIndex index) {
+        this.loader = loader;
+        this.asOf = asOf;
+        this.index = index;
+    }
+
+    /** Builds the graph of the lineage in force now; register it with the ingestor to keep it current. */
+    public static LineageGraph load(Store store) {
+        LineageLoader loader = new LineageLoader(store);
+        return new LineageGraph(loader, null, build(loader, null));
+    }
+
+    /** Builds the graph of the lineage that was in force at {@code asOf}, for questions about history. */
+    public static LineageGraph loadAsOf(Store store, Instant asOf) {
+        Objects.requireNonNull(asOf, "asOf");
+        LineageLoader loader = new LineageLoader(store);
+        return new LineageGraph(loader, asOf, build(loader, asOf));
+    }
+
+    private static GraphIndex build(LineageLoader loader, Instant asOf) {
+        // Tables start small, grow by half and are trimmed once loaded: no counting queries first.
+        GraphIndex index = new GraphIndex(1024, 1024, 1024);
+        loader.datasets(index::putDataset);
+        loader.edges(asOf, index::bulkEdge);
+        loader.columnFlows(index::bulkFlows);
+        index.link();
+        return index;
+    }
+
+    /** The instant this graph pictures, or null when it follows the catalog as it is now. */
+    public Instant asOf() {
+        return asOf;
+    }
+
+    /** Datasets reached by following edges in the direction data flows. */
+    public DatasetReach downstream(long datasetId, Query query) {
+        return walkDatasets(datasetId, query, false);
+    }
+
+    /** Datasets reached by following edges against the direction data flows: what the start was made from. */
+    public DatasetReach upstream(long datasetId, Query query) {
+        return walkDatasets(datasetId, query, true);
+    }
+
+    /** Columns whose content the start column flows into, and (separately) those it only influences. */
+    public ColumnClosure downstreamColumns(long datasetId, String column, Query query) {
+        return walkColumns(datasetId, column, query, false);
+    }
+
+    /** Columns the start column's content comes from, and (separately) those that only influence it. */
+    public ColumnClosure upstreamColumns(long datasetId, String column, Query query) {
+        return walkColumns(datasetId, column, query, true);
+    }
+
+    private DatasetReach walkDatasets(long datasetId, Query query, boolean upstream) {
+        Filter filter = Filter.of(query);
+        return read(g -> {
+            int start = g.nodes.node(datasetId);
+            if (start < 0) {
+                return DatasetReach.empty(datasetId);
+            }
+            Scratch scratch = datasetScratch.take(g.nodes.count());
+            try {
+                return Walks.datasets(g, scratch, start, filter, upstream);
+            } finally {
+                datasetScratch.give(scratch);
+            }
+        });
+    }
+
+    private ColumnClosure walkColumns(long datasetId, String column, Query query, boolean upstream) {
+        Objects.requireNonNull(column, "column");
+        Filter filter = Filter.of(query);
+        return read(g -> {
+            int dataset = g.nodes.node(datasetId);
+            int start = dataset < 0 ? -1 : g.columns.node(dataset, column);
+            if (start < 0) {
+                ColumnKey key = new ColumnKey(datasetId, column);
+                return new ColumnClosure(key, ColumnReach.empty(key), ColumnReach.empty(key));
+            }
+            Scratch scratch = columnScratch.take(g.columns.count());
+            try {
+                return Walks.columns(g, scratch, start, filter, upstream);
+            } finally {
+                columnScratch.give(scratch);
+            }
+        });
+    }
+
+    /** Datasets the graph knows (every dataset identity, with or without edges). */
+    public int datasetCount() {
+        return read(g -> g.nodes.count());
+    }
+
+    public int edgeCount() {
+        return read(g -> g.edges.count());
+    }
+
+    public int columnCount() {
+        return read(g -> g.columns.count());
+    }
+
+    public int columnEdgeCount() {
+        return read(g -> g.columnEdges.live());
+    }
+
+    /**
+     * Re-reads what a committed batch changed. Edge changes carry the id of the row written; a row that
+     * is no longer current is removed, a current one replaces any earlier version of the same edge.
+     * Dataset changes refresh the kind and source the filters test.
+     */
+    @Override
+    public void committed(List<Change> changes) {
+        if (asOf != null) {
+            throw new IllegalStateException("A graph of the lineage as of " + asOf + " does not follow changes");
+        }
+        TreeSet<Long> edgeIds = new TreeSet<>();
+        TreeSet<Long> datasetIds = new TreeSet<>();
+        for (Change change : changes) {
+            if (Change.EDGE.equals(change.entity())) {
+                edgeIds.add(change.entityId());
+            } else if (Change.DATASET.equals(change.entity())) {
+                datasetIds.add(change.entityId());
+            }
+        }
+        if (edgeIds.isEmpty() && datasetIds.isEmpty()) {
+            return;
+        }
+        // Read outside the lock: walks go on while the store answers.
+        List<EdgeRow> rows = loader.edgesById(edgeIds);
+        List<Long> current = new ArrayList<>();
+        for (EdgeRow row : rows) {
+            datasetIds.add(row.sourceDatasetId());
+            datasetIds.add(row.targetDatasetId());
+            if (row.current()) {
+                current.add(row.id());
+            }
+        }
+        List<DatasetRow> datasets = loader.datasets(datasetIds);
+        Map<Long, List<ColumnFlowRow>> flows = loader.columnFlowsOf(current);
+        lock.writeLock().lock();
+        try {
+            datasets.forEach(index::putDataset);
+            for (EdgeRow row : rows) {
+                if (row.current()) {
+                    index.putEdge(row, flows.getOrDefault(row.id(), List.of()));
+                } else {
+                    index.removeEdge(row.id());
+                }
+            }
+        } finally {
+            lock.writeLock().unlock();
+        }
+    }
+
+    private <T> T read(Function<GraphIndex, T> question) {
+        lock.readLock().lock();
+        try {
+            return question.apply(index);
+        } finally {
+            lock.readLock().unlock();
+        }
+    }
+}
