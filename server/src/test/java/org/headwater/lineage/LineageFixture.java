@@ -131,7 +131,7 @@ final class LineageFixture {
         things.add(dataset(TREND_CACHE, DatasetKind.FILE_SET, lab));
         for (String script : List.of(MERGE, JOIN, QC, SUMMARISE, PLOT, TRENDS, CACHE)) {
             Language language = script.endsWith(".sql") ? Language.SQL : Language.PYTHON;
-            things.add(new ScriptSeen(script, script.substring(LAB.length()), language, lab, 100L, null, "s-" + script, null));
+            things.add(new ScriptSeen(script, script.substring(LAB.length()), language, lab, 100L, null, "s-" + script, null, null, null, List.of()));
         }
         catalog.ingestor().apply("test", things);
         LineageFixture fixture = new LineageFixture(catalog, logger, lab);
