@@ -44,6 +44,10 @@ final class DatasetRoutes {
         ctx.json(catalog.get().reader().schemaHistory(dataset.id()));
     }
 
+    void lineage(Context ctx) {
+        ctx.json(org.headwater.lineage.LineageReport.of(catalog.get().reader(), find(ctx)));
+    }
+
     /** Replaces the description and tags; the author is recorded with the change. */
     void putNote(Context ctx) {
         DatasetView dataset = find(ctx);

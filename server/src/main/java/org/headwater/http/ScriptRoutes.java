@@ -15,6 +15,12 @@ final class ScriptRoutes {
                 Params.intParam(ctx, "limit", 100, 1, 1000)));
     }
 
+    void reads(Context ctx) {
+        long id = Params.pathId(ctx, "id");
+        catalog.get().reader().script(id).orElseThrow(() -> ApiError.notFound("No script with id " + id));
+        ctx.json(catalog.get().reader().references(id));
+    }
+
     void one(Context ctx) {
         long id = Params.pathId(ctx, "id");
         ctx.json(catalog.get().reader().script(id).orElseThrow(() -> ApiError.notFound("No script with id " + id)));

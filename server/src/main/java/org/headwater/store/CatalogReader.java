@@ -2,6 +2,7 @@ package org.headwater.store;
 
 import static org.headwater.store.Validity.instant;
 import static org.headwater.store.schema.Tables.CHANGE_LOG;
+import static org.headwater.store.schema.Tables.COLUMN_LINEAGE;
 import static org.headwater.store.schema.Tables.DATASET;
 import static org.headwater.store.schema.Tables.DATASET_NOTE;
 import static org.headwater.store.schema.Tables.DATASET_OWNER;
@@ -16,6 +17,8 @@ import static org.headwater.store.schema.Tables.RUN_IO;
 import static org.headwater.store.schema.Tables.SCHEMA_COLUMN;
 import static org.headwater.store.schema.Tables.SCHEMA_VERSION;
 import static org.headwater.store.schema.Tables.SCRIPT;
+import static org.headwater.store.schema.Tables.SCRIPT_ANALYSIS;
+import static org.headwater.store.schema.Tables.SCRIPT_REFERENCE;
 import static org.headwater.store.schema.Tables.SCRIPT_STATE;
 import static org.headwater.store.schema.Tables.SOURCE;
 
@@ -403,6 +406,43 @@ public final class CatalogReader {
         return db.selectDistinct(CHANGE_LOG.ENTITY, CHANGE_LOG.ENTITY_ID).from(CHANGE_LOG)
                 .where(CHANGE_LOG.SEQ.gt(seq))
                 .fetch(r -> Map.entry(r.value1(), r.value2()));
+    }
+
+    /** Column flows into a dataset from its current lineage edges, by target column. */
+    public List<Views.ColumnFlowView> columnFlowsInto(long datasetId) {
+        var source = DATASET.as("source_dataset");
+        return db.select(source.NAME, COLUMN_LINEAGE.SOURCE_COLUMN, COLUMN_LINEAGE.TARGET_COLUMN, COLUMN_LINEAGE.ROLE,
+                        LINEAGE_EDGE.EVIDENCE, SCRIPT.NAME)
+                .from(COLUMN_LINEAGE)
+                .join(LINEAGE_EDGE).on(LINEAGE_EDGE.ID.eq(COLUMN_LINEAGE.EDGE_ID))
+                .join(source).on(source.ID.eq(LINEAGE_EDGE.SOURCE_DATASET_ID))
+                .leftJoin(SCRIPT).on(SCRIPT.ID.eq(LINEAGE_EDGE.SCRIPT_ID))
+                .where(LINEAGE_EDGE.TARGET_DATASET_ID.eq(datasetId), LINEAGE_EDGE.VALID_TO.isNull())
+                .orderBy(COLUMN_LINEAGE.TARGET_COLUMN, source.NAME, COLUMN_LINEAGE.SOURCE_COLUMN)
+                .fetch(r -> new Views.ColumnFlowView(r.value1(), r.value2(), r.value3(), r.value4(), r.value5(), r.value6()));
+    }
+
+    /** What the current analysis of a script found it reads and writes, in code order. */
+    public List<Views.ReferenceView> references(long scriptId) {
+        return db.select(SCRIPT_REFERENCE.DIRECTION, SCRIPT_REFERENCE.PATTERN, SCRIPT_REFERENCE.RESOLVED, DATASET.NAME,
+                        SCRIPT_REFERENCE.FUNCTION_NAME, SCRIPT_REFERENCE.EXPRESSION, SCRIPT_REFERENCE.LINE_NO,
+                        SCRIPT_REFERENCE.COLUMN_NO, SCRIPT_REFERENCE.CELL, SCRIPT_REFERENCE.CONFIDENCE)
+                .from(SCRIPT_REFERENCE)
+                .join(SCRIPT_ANALYSIS).on(SCRIPT_ANALYSIS.ID.eq(SCRIPT_REFERENCE.ANALYSIS_ID))
+                .leftJoin(DATASET).on(DATASET.ID.eq(SCRIPT_REFERENCE.DATASET_ID))
+                .where(SCRIPT_ANALYSIS.SCRIPT_ID.eq(scriptId), SCRIPT_ANALYSIS.VALID_TO.isNull())
+                .orderBy(SCRIPT_REFERENCE.CELL.nullsFirst(), SCRIPT_REFERENCE.LINE_NO, SCRIPT_REFERENCE.COLUMN_NO)
+                .fetch(r -> new Views.ReferenceView(r.value1(), r.value2(), r.value3(), r.value4(), r.value5(), r.value6(),
+                        r.value7(), r.value8(), r.value9(), r.value10()));
+    }
+
+    /** Scripts a person may mean by {@code key}: exact URI or name, a path, or a unique end of a name. */
+    public List<ScriptView> findScripts(String key) {
+        String asPath = pathUri(key);
+        String suffix = key.startsWith("/") ? key : "/" + key;
+        List<ScriptView> exact = scriptQuery(SCRIPT.URI.eq(key).or(SCRIPT.NAME.eq(key))
+                .or(asPath == null ? DSL.falseCondition() : SCRIPT.URI.eq(asPath)), 0, 50);
+        return !exact.isEmpty() ? exact : scriptQuery(SCRIPT.NAME.endsWith(suffix).or(SCRIPT.URI.endsWith(suffix)), 0, 50);
     }
 
     /** Recent runs, newest first. */

@@ -62,6 +62,16 @@ public final class Views {
             Instant gitCommittedAt, @JsonRawValue String gitAuthors) {
     }
 
+    /** One column-level flow into a dataset, from a current lineage edge. */
+    public record ColumnFlowView(String sourceDataset, String sourceColumn, String targetColumn, String role,
+            String evidence, String script) {
+    }
+
+    /** One read or write a script's code holds, as static analysis found it. */
+    public record ReferenceView(String direction, String pattern, boolean resolved, String dataset, String function,
+            String expression, int line, int column, Integer cell, double confidence) {
+    }
+
     /** A run of a script, as lists show it. */
     public record RunSummary(String id, String script, Instant startedAt, Instant endedAt, Integer exitCode,
             String exception, String user, String host, String gitCommit, int reads, int writes) {
