@@ -14,6 +14,8 @@ if [ -z "$python" ]; then
 fi
 if [ -n "$python" ]; then
   echo "connectors: Python connector tests with $python"
+  # Under CI also the slow test that pip-installs the package into a fresh virtual environment.
+  if [ "$require" = "true" ]; then export HEADWATER_SLOW_TESTS=1; fi
   "$python" -m unittest discover -s connectors/python/tests -t connectors/python || status=1
 elif [ "$require" = "true" ]; then
   echo "connectors: python3 is missing (HEADWATER_REQUIRE_EXTERNAL=true)" >&2; status=1
