@@ -80,6 +80,7 @@ public final class ColumnReach {
         return all;
     }
 
+    /** The reported column, if reached; a linear search, for a few look-ups per walk. */
     public Optional<ReachedColumn> find(ColumnKey column) {
         for (int i = 0; i < size(); i++) {
             if (column(i).equals(column)) {

@@ -78,6 +78,7 @@ public final class DatasetReach {
         return reportedIds;
     }
 
+    /** The reported dataset with this id, if reached; a linear search, for a few look-ups per walk. */
     public Optional<Reached> find(long datasetId) {
         for (int i = 0; i < size(); i++) {
             if (datasetId(i) == datasetId) {

@@ -1,6 +1,7 @@
 package org.headwater.lineage;
 
 import java.util.EnumSet;
+import java.util.Objects;
 import java.util.Set;
 import org.headwater.model.DatasetKind;
 import org.headwater.model.Evidence;
@@ -29,6 +30,9 @@ public record Query(int maxDepth, Set<Evidence> evidence, double minConfidence, 
         if (!(minConfidence >= 0.0 && minConfidence <= 1.0)) {
             throw new IllegalArgumentException("minConfidence must be within [0, 1]: " + minConfidence);
         }
+        Objects.requireNonNull(evidence, "evidence (empty for any)");
+        Objects.requireNonNull(kinds, "kinds (empty for any)");
+        Objects.requireNonNull(sources, "sources (empty for any)");
         evidence = evidence.isEmpty() ? Set.of() : Set.copyOf(EnumSet.copyOf(evidence));
         kinds = kinds.isEmpty() ? Set.of() : Set.copyOf(EnumSet.copyOf(kinds));
         sources = Set.copyOf(sources);
