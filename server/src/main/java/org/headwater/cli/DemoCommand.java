@@ -10,8 +10,8 @@ import java.util.concurrent.atomic.AtomicReference;
 import org.headwater.Catalog;
 import org.headwater.harvest.HarvestProgress;
 import org.headwater.harvest.HarvestSummary;
-import org.headwater.http.ApiServer;
 import picocli.CommandLine.Command;
+import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Spec;
 
@@ -20,13 +20,8 @@ import picocli.CommandLine.Spec;
         description = {"Copy the demo workspace (an invented river-basin monitoring lab) to a temporary folder,",
                 "harvest it into a fresh temporary catalog, and serve it. Temporary folders are deleted at exit."})
 final class DemoCommand implements Callable<Integer> {
-    @Option(names = "--host", paramLabel = "ADDRESS", defaultValue = ApiServer.DEFAULT_HOST,
-            description = "Address to listen on (default ${DEFAULT-VALUE}).")
-    String host;
-
-    @Option(names = "--port", paramLabel = "PORT", defaultValue = "" + ApiServer.DEFAULT_PORT,
-            description = "Port to listen on (default ${DEFAULT-VALUE}; 0 picks a free one).")
-    int port;
+    @Mixin
+    ListenOptions listen;
 
     @Option(names = "--data-dir", paramLabel = "DIR",
             description = "Keep the demo catalog in DIR instead of a temporary folder (it is then not deleted).")
@@ -51,7 +46,7 @@ final class DemoCommand implements Callable<Integer> {
                 throw new UncheckedIOException(e);
             }
         });
-        ServeCommand.serveUntilStopped(opening, host, port, spec.commandLine().getOut(), server ->
+        ServeCommand.serveUntilStopped(opening, listen.host, listen.port, spec.commandLine().getOut(), server ->
                 String.format("Demo workspace %s: %d datasets, %d scripts%n"
                                 + "Headwater demo is serving at %s%nTry %sapi/search?q=nitrate  (stop with Ctrl-C)",
                         workspace, summary.get().datasets(), summary.get().scripts(), server.url(), server.url()),

@@ -5,7 +5,6 @@ import java.util.List;
 import java.util.concurrent.Callable;
 import org.headwater.Catalog;
 import org.headwater.lineage.LineageReport;
-import org.headwater.store.Views.DatasetSummary;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
@@ -44,14 +43,7 @@ final class LineageCommand implements Callable<Integer> {
         List<LineageReport.Report> reports = new ArrayList<>();
         try (Catalog open = catalog.open()) {
             for (String key : keys) {
-                List<DatasetSummary> found = open.reader().findDatasets(key);
-                if (found.isEmpty()) {
-                    throw new Problems.UsageProblem("no dataset matches '" + key + "'");
-                }
-                if (found.size() > 1 && !found.get(0).name().equals(key)) {
-                    throw new Problems.UsageProblem("'" + key + "' matches " + found.size() + " datasets; give the full name");
-                }
-                reports.add(LineageReport.of(open.reader(), open.reader().dataset(found.get(0).id(), null).orElseThrow()));
+                reports.add(LineageReport.of(open.reader(), open.reader().dataset(DatasetKeys.one(open.reader(), key).id(), null).orElseThrow()));
             }
         }
         var out = spec.commandLine().getOut();

@@ -18,13 +18,8 @@ import picocli.CommandLine.Spec;
         description = {"Serve the catalog over HTTP: the JSON API under /api and the web UI at /.",
                 "Listens on 127.0.0.1 only unless --host says otherwise. Stop with Ctrl-C."})
 final class ServeCommand implements Callable<Integer> {
-    @Option(names = "--host", paramLabel = "ADDRESS", defaultValue = ApiServer.DEFAULT_HOST,
-            description = "Address to listen on (default ${DEFAULT-VALUE}).")
-    String host;
-
-    @Option(names = "--port", paramLabel = "PORT", defaultValue = "" + ApiServer.DEFAULT_PORT,
-            description = "Port to listen on (default ${DEFAULT-VALUE}; 0 picks a free one).")
-    int port;
+    @Mixin
+    ListenOptions listen;
 
     @Mixin
     CatalogOptions catalog;
@@ -35,7 +30,7 @@ final class ServeCommand implements Callable<Integer> {
     @Override
     public Integer call() throws InterruptedException {
         // The store opens while the HTTP server starts: the two are the bulk of start-up time.
-        serveUntilStopped(CompletableFuture.supplyAsync(catalog::open), host, port, spec.commandLine().getOut(),
+        serveUntilStopped(CompletableFuture.supplyAsync(catalog::open), listen.host, listen.port, spec.commandLine().getOut(),
                 server -> "Headwater is serving " + catalog.dataDir.toAbsolutePath().normalize() + " at " + server.url(),
                 () -> { });
         return Main.OK;

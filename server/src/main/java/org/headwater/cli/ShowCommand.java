@@ -1,11 +1,9 @@
 package org.headwater.cli;
 
 import java.time.Instant;
-import java.util.List;
 import java.util.concurrent.Callable;
 import org.headwater.Catalog;
 import org.headwater.store.Views.ColumnView;
-import org.headwater.store.Views.DatasetSummary;
 import org.headwater.store.Views.DatasetView;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
@@ -38,16 +36,7 @@ final class ShowCommand implements Callable<Integer> {
         Instant at = asOf == null ? null : CliTimes.parse(asOf);
         var out = spec.commandLine().getOut();
         try (Catalog open = catalog.open()) {
-            List<DatasetSummary> found = open.reader().findDatasets(key);
-            if (found.isEmpty()) {
-                throw new Problems.UsageProblem("no dataset matches '" + key + "'; try 'headwater search " + key + "'");
-            }
-            if (found.size() > 1 && !found.get(0).name().equals(key) && !found.get(0).uri().equals(key)) {
-                StringBuilder list = new StringBuilder("'" + key + "' matches " + found.size() + " datasets:");
-                found.forEach(d -> list.append("\n  ").append(d.name()));
-                throw new Problems.UsageProblem(list.toString());
-            }
-            DatasetView d = open.reader().dataset(found.get(0).id(), at)
+            DatasetView d = open.reader().dataset(DatasetKeys.one(open.reader(), key).id(), at)
                     .orElseThrow(() -> new Problems.UsageProblem("dataset vanished while reading it"));
             if (output.json) {
                 Output.printJson(out, d);

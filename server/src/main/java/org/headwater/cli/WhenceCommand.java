@@ -11,7 +11,6 @@ import java.util.concurrent.Callable;
 import org.headwater.Catalog;
 import org.headwater.lineage.StampReader;
 import org.headwater.lineage.Whence;
-import org.headwater.store.Views.DatasetSummary;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Parameters;
@@ -47,12 +46,7 @@ final class WhenceCommand implements Callable<Integer> {
                 answer = whence.of(key, file.toAbsolutePath().normalize().toUri().toString(), sha256(bytes),
                         StampReader.runId(bytes).orElse(null));
             } else {
-                List<DatasetSummary> found = open.reader().findDatasets(key);
-                if (found.size() != 1) {
-                    throw new Problems.UsageProblem(found.isEmpty() ? "no file or dataset '" + key + "'"
-                            : "'" + key + "' matches " + found.size() + " datasets; give the full name");
-                }
-                answer = whence.ofDataset(found.get(0).id());
+                answer = whence.ofDataset(DatasetKeys.one(open.reader(), key).id());
             }
         }
         var out = spec.commandLine().getOut();
