@@ -13,6 +13,7 @@ import org.headwater.harvest.format.FormatRegistry;
 import org.headwater.ingest.HarvestJournal;
 import org.headwater.ingest.Ingestor;
 import org.headwater.ingest.Sources;
+import org.headwater.lineage.LineageGraph;
 import org.headwater.search.SearchIndex;
 import org.headwater.store.CatalogReader;
 import org.headwater.store.Store;
@@ -30,6 +31,7 @@ public final class Catalog implements AutoCloseable {
     private final Sources sources;
     private final HarvestJournal journal;
     private final SearchIndex index;
+    private final LineageGraph lineage;
 
     private Catalog(Path dataDir, Store store, SearchIndex index, Clock clock) {
         this.dataDir = dataDir;
@@ -39,7 +41,10 @@ public final class Catalog implements AutoCloseable {
         this.sources = new Sources(store, clock);
         this.journal = new HarvestJournal(store, clock);
         this.index = index;
+        // Derived like the index: built from the store now, kept current by the ingestion path.
+        this.lineage = LineageGraph.load(store);
         ingestor.addListener(index);
+        ingestor.addListener(lineage);
     }
 
     /** Opens (creating if needed) the catalog kept in {@code dataDir}: {@code catalog.mv.db} and {@code index/}. */
@@ -86,6 +91,11 @@ public final class Catalog implements AutoCloseable {
 
     public SearchIndex index() {
         return index;
+    }
+
+    /** The in-memory lineage graph, for upstream and downstream walks. */
+    public LineageGraph lineage() {
+        return lineage;
     }
 
     /** The underlying store, for tools and tests that need to look below the reader. */

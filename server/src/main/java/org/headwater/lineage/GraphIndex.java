@@ -12,8 +12,8 @@ import org.headwater.ingest.Observation.ColumnRole;
  * The graph's data: dataset and column nodes, dataset and column edges, and adjacency in both directions
  * for both levels. Not thread-safe; {@link LineageGraph} guards it with a read-write lock.
  *
- * <p>Built in two phases when loaded in bulk (tables first, then every adjacency list sized exactly),
- * then kept current one edge at a time.
+ * <p>Built in two phases when loaded in bulk (tables first, then adjacency packed list after list), then
+ * kept current one edge at a time.
  */
 final class GraphIndex {
     final DatasetNodes nodes;

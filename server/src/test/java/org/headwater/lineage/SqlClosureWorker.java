@@ -56,7 +56,13 @@ public final class SqlClosureWorker {
                     // Nothing else in a JVM that ran out of memory is worth waiting for, closing the store included.
                     Runtime.getRuntime().halt(0);
                 } catch (RuntimeException e) {
-                    if (!timedOut(e)) {
+                    if (sqlState(e, "90108")) {
+                        // H2 catches the OutOfMemoryError itself and reports it as error 90108.
+                        System.out.printf("oom %.3f%n", millis(t0));
+                        System.out.flush();
+                        Runtime.getRuntime().halt(0);
+                    }
+                    if (!sqlState(e, "57014")) {
                         throw e;
                     }
                     System.out.printf("timeout %.3f%n", millis(t0));
@@ -72,10 +78,10 @@ public final class SqlClosureWorker {
         return (System.nanoTime() - t0) / 1e6;
     }
 
-    /** H2 reports a cancelled statement (query timeout) with SQL state 57014. */
-    private static boolean timedOut(Throwable e) {
+    /** H2 reports a cancelled statement (query timeout) with SQL state 57014, running out of memory with 90108. */
+    private static boolean sqlState(Throwable e, String state) {
         for (Throwable t = e; t != null; t = t.getCause()) {
-            if (t instanceof SQLException sql && "57014".equals(sql.getSQLState())) {
+            if (t instanceof SQLException sql && state.equals(sql.getSQLState())) {
                 return true;
             }
         }
