@@ -69,6 +69,8 @@ public final class ApiServer implements AutoCloseable {
             config.routes.get("/api/datasets/{id}/schema-history", datasets::schemaHistory);
             config.routes.get("/api/datasets/{id}/lineage", datasets::lineage);
             config.routes.get("/api/scripts/{id}/reads", scripts::reads);
+            config.routes.get("/api/scripts/{id}/runs", scripts::runs);
+            config.routes.get("/api/datasets/{id}/runs", datasets::runs);
             config.routes.put("/api/datasets/{id}/note", datasets::putNote);
             config.routes.get("/api/search", search::search);
             config.routes.get("/api/scripts", scripts::list);

@@ -44,6 +44,10 @@ final class DatasetRoutes {
         ctx.json(catalog.get().reader().schemaHistory(dataset.id()));
     }
 
+    void runs(Context ctx) {
+        ctx.json(catalog.get().reader().runsOfDataset(find(ctx).id(), Params.intParam(ctx, "limit", 50, 1, 1000)));
+    }
+
     void lineage(Context ctx) {
         ctx.json(org.headwater.lineage.LineageReport.of(catalog.get().reader(), find(ctx)));
     }

@@ -21,6 +21,12 @@ final class ScriptRoutes {
         ctx.json(catalog.get().reader().references(id));
     }
 
+    void runs(Context ctx) {
+        long id = Params.pathId(ctx, "id");
+        catalog.get().reader().script(id).orElseThrow(() -> ApiError.notFound("No script with id " + id));
+        ctx.json(catalog.get().reader().runsOfScript(id, Params.intParam(ctx, "limit", 50, 1, 1000)));
+    }
+
     void one(Context ctx) {
         long id = Params.pathId(ctx, "id");
         ctx.json(catalog.get().reader().script(id).orElseThrow(() -> ApiError.notFound("No script with id " + id)));

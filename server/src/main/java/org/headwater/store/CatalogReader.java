@@ -197,13 +197,75 @@ public final class CatalogReader {
         LineageEdge e = LINEAGE_EDGE;
         var here = upstream ? e.TARGET_DATASET_ID : e.SOURCE_DATASET_ID;
         var there = upstream ? e.SOURCE_DATASET_ID : e.TARGET_DATASET_ID;
-        return db.select(e.ID, there, DATASET.NAME, SCRIPT.NAME, e.EVIDENCE, e.CONFIDENCE)
+        return db.select(e.ID, there, DATASET.NAME, SCRIPT.NAME, e.EVIDENCE, e.CONFIDENCE, e.SOURCE_DATASET_ID,
+                        e.TARGET_DATASET_ID, e.SCRIPT_ID)
                 .from(e)
                 .join(DATASET).on(DATASET.ID.eq(there))
                 .leftJoin(SCRIPT).on(SCRIPT.ID.eq(e.SCRIPT_ID))
                 .where(here.eq(datasetId), Validity.at(e.VALID_FROM, e.VALID_TO, asOf))
                 .orderBy(DATASET.NAME, e.ID)
-                .fetch(r -> new EdgeView(r.value1(), r.value2(), r.value3(), r.value4(), r.value5(), r.value6()));
+                .fetch(r -> {
+                    Corroboration c = corroborate(r.value7(), r.value8(), r.value9(), r.value5(), r.value6(), asOf);
+                    return new EdgeView(r.value1(), r.value2(), r.value3(), r.value4(), r.value5(), r.value6(),
+                            c.word(), c.confidence());
+                });
+    }
+
+    /** How many of a script's latest runs count when asking whether a flow found in its code still happens. */
+    static final int RECENT_RUNS = 5;
+
+    private record Corroboration(String word, double confidence) {
+    }
+
+    /**
+     * Merges the evidence of the code and of the runs for one edge (see {@link EdgeView}). A flow found in
+     * the code counts as seen at run time only when one of the script's {@value #RECENT_RUNS} latest runs
+     * read its source and wrote its target.
+     */
+    private Corroboration corroborate(long source, long target, Long script, String evidence, double confidence,
+            Instant asOf) {
+        if (script == null || (!evidence.equals("static") && !evidence.equals("runtime"))) {
+            return new Corroboration(evidence, confidence);
+        }
+        if (evidence.equals("runtime")) {
+            Double staticTwin = twin(source, target, script, "static", asOf);
+            return staticTwin == null ? new Corroboration("runtime only", confidence)
+                    : new Corroboration("static and runtime", 1 - (1 - confidence) * (1 - staticTwin));
+        }
+        List<String> recent = db.select(RUN.ID).from(RUN).where(RUN.SCRIPT_ID.eq(script))
+                .orderBy(RUN.STARTED_AT.desc()).limit(RECENT_RUNS).fetch(RUN.ID);
+        if (recent.isEmpty()) {
+            return new Corroboration("static only", confidence);
+        }
+        var read = RUN_IO.as("read_io");
+        var wrote = RUN_IO.as("write_io");
+        boolean seen = db.fetchExists(DSL.selectOne().from(read).join(wrote).on(wrote.RUN_ID.eq(read.RUN_ID))
+                .where(read.RUN_ID.in(recent), read.DIRECTION.eq("read"), read.DATASET_ID.eq(source),
+                        wrote.DIRECTION.in("write", "rename_to"), wrote.DATASET_ID.eq(target)));
+        if (!seen) {
+            return new Corroboration("static, not seen in recent runs", confidence);
+        }
+        Double runtimeTwin = twin(source, target, script, "runtime", asOf);
+        double other = runtimeTwin == null ? 1.0 : runtimeTwin;
+        return new Corroboration("static and runtime", 1 - (1 - confidence) * (1 - other));
+    }
+
+    private Double twin(long source, long target, long script, String evidence, Instant asOf) {
+        return db.select(LINEAGE_EDGE.CONFIDENCE).from(LINEAGE_EDGE)
+                .where(LINEAGE_EDGE.SOURCE_DATASET_ID.eq(source), LINEAGE_EDGE.TARGET_DATASET_ID.eq(target),
+                        LINEAGE_EDGE.SCRIPT_ID.eq(script), LINEAGE_EDGE.EVIDENCE.eq(evidence),
+                        Validity.at(LINEAGE_EDGE.VALID_FROM, LINEAGE_EDGE.VALID_TO, asOf))
+                .limit(1).fetchOne(LINEAGE_EDGE.CONFIDENCE);
+    }
+
+    /** Runs of one script, newest first. */
+    public List<Views.RunSummary> runsOfScript(long scriptId, int limit) {
+        return runs(RUN.SCRIPT_ID.eq(scriptId), limit);
+    }
+
+    /** Runs that read or wrote one dataset, newest first. */
+    public List<Views.RunSummary> runsOfDataset(long datasetId, int limit) {
+        return runs(RUN.ID.in(DSL.select(RUN_IO.RUN_ID).from(RUN_IO).where(RUN_IO.DATASET_ID.eq(datasetId))), limit);
     }
 
     /**
@@ -447,11 +509,16 @@ public final class CatalogReader {
 
     /** Recent runs, newest first. */
     public List<Views.RunSummary> runs(int limit) {
+        return runs(DSL.trueCondition(), limit);
+    }
+
+    private List<Views.RunSummary> runs(Condition condition, int limit) {
         var reads = DSL.field(DSL.selectCount().from(RUN_IO).where(RUN_IO.RUN_ID.eq(RUN.ID), RUN_IO.DIRECTION.eq("read")));
         var writes = DSL.field(DSL.selectCount().from(RUN_IO).where(RUN_IO.RUN_ID.eq(RUN.ID), RUN_IO.DIRECTION.eq("write")));
         return db.select(RUN.ID, SCRIPT.NAME, RUN.SCRIPT_URI, RUN.STARTED_AT, RUN.ENDED_AT, RUN.EXIT_CODE, RUN.EXCEPTION,
                         RUN.USER_NAME, RUN.HOST, RUN.GIT_COMMIT, reads, writes)
                 .from(RUN).leftJoin(SCRIPT).on(SCRIPT.ID.eq(RUN.SCRIPT_ID))
+                .where(condition)
                 .orderBy(RUN.STARTED_AT.desc()).limit(limit)
                 .fetch(r -> new Views.RunSummary(r.value1(), r.value2() != null ? r.value2() : r.value3(),
                         instant(r.value4()), instant(r.value5()), r.value6(), r.value7(), r.value8(), r.value9(),

@@ -44,8 +44,17 @@ public final class Views {
     }
 
     /** A lineage edge as seen from one of its ends. */
+    /**
+     * A lineage edge as seen from one of its ends.
+     *
+     * @param corroboration how code and runs agree on it: {@code static and runtime} (found in the code and
+     *     seen in a run of that script), {@code runtime only}, {@code static only} (the script never ran under
+     *     a connector), or {@code static, not seen in recent runs} (the script's last runs did not do it:
+     *     possibly dead code)
+     * @param combinedConfidence the confidence when both kinds of evidence are counted: 1 - (1-a)(1-b)
+     */
     public record EdgeView(long edgeId, long datasetId, String datasetName, String script, String evidence,
-            double confidence) {
+            double confidence, String corroboration, double combinedConfidence) {
     }
 
     /** Everything the catalog knows of one dataset at one time. */

@@ -128,4 +128,44 @@ class RunsAndWhenceTest {
         String pdf = "%PDF-1.4\n1 0 obj << /Title (x) /HeadwaterRun (old) >> endobj\n7 0 obj << /HeadwaterRun (new-run) >> endobj\n";
         assertThat(StampReader.runId(pdf.getBytes())).contains("new-run");
     }
+
+    @Test
+    void edgesFoundInCodeAreConfirmedByRunsOrFlaggedWhenRecentRunsNeverDidThem() throws Exception {
+        Path lake = Files.createDirectories(temp.resolve("lake"));
+        Path input = lake.resolve("levels.csv");
+        Files.writeString(input, "site,level\nA,1\n");
+        Path script = lake.resolve("plot.py");
+        Files.writeString(script, String.join("\n", "import pandas as pd", "import matplotlib.pyplot as plt",
+                "frame = pd.read_csv('levels.csv')", "plt.savefig('levels.png')", "frame.to_csv('summary.csv')", ""));
+        Path figure = lake.resolve("levels.png");
+        Files.write(figure, new byte[] {1, 2, 3});
+        String record = """
+                {"run_id": "run-1", "script": {"path": "%s", "sha256": "%s"}, "started_at": "2026-11-30T09:00:00Z",
+                 "exit_code": 0, "io": [{"path": "%s", "direction": "read", "sha256": "%s"},
+                                        {"path": "%s", "direction": "write", "sha256": "%s"}]}
+                """.formatted(script, sha256(Files.readAllBytes(script)), input, sha256(Files.readAllBytes(input)),
+                figure, sha256(Files.readAllBytes(figure)));
+        try (Catalog catalog = TestCatalogs.fresh(temp.resolve("catalog"));
+                ApiServer server = ApiServer.start(catalog, "127.0.0.1", 0)) {
+            catalog.harvestFolder(lake, false, HarvestProgress.NONE);
+            long png = catalog.reader().findDatasets("levels.png").get(0).id();
+            long summary = catalog.reader().findDatasets("summary.csv").get(0).id();
+            // Before any run: found in the code only.
+            assertThat(catalog.reader().dataset(summary, null).orElseThrow().upstream())
+                    .extracting(e -> e.corroboration()).containsExactly("static only");
+            assertThat(post(server, record).statusCode()).isEqualTo(201);
+
+            // The run read levels.csv and wrote levels.png: both edges into the figure agree, the static one's
+            // confidence combines with the run's (1 - (1 - 1.0)(1 - 1.0) = 1.0). It never wrote summary.csv.
+            assertThat(catalog.reader().dataset(png, null).orElseThrow().upstream())
+                    .extracting(e -> e.evidence() + " " + e.corroboration() + " " + e.combinedConfidence())
+                    .containsExactlyInAnyOrder("static static and runtime 1.0", "runtime static and runtime 1.0");
+            assertThat(catalog.reader().dataset(summary, null).orElseThrow().upstream())
+                    .extracting(e -> e.corroboration()).containsExactly("static, not seen in recent runs");
+            long scriptId = catalog.reader().findScripts("plot.py").get(0).id();
+            assertThat(catalog.reader().runsOfScript(scriptId, 10)).extracting(r -> r.id()).containsExactly("run-1");
+            long levels = catalog.reader().findDatasets("levels.csv").get(0).id();
+            assertThat(get(server, "api/datasets/" + levels + "/runs").get(0).get("id").asText()).isEqualTo("run-1");
+        }
+    }
 }
