@@ -77,6 +77,7 @@ class PythonConnectorEndToEndTest {
                 "frame.to_csv('levels_m.csv', index=False)",
                 "plt.bar(frame['site'], frame['level_m'])",
                 "plt.savefig('levels.png')",
+                "plt.savefig('levels.pdf')",
                 "print('done', len(frame))",
                 ""));
         try (Catalog catalog = TestCatalogs.fresh(temp.resolve("catalog"));
@@ -96,7 +97,13 @@ class PythonConnectorEndToEndTest {
             assertThat(runs).hasSize(1);
             assertThat(runs.get(0).exitCode()).isZero();
             assertThat(runs.get(0).reads()).isEqualTo(1);
-            assertThat(runs.get(0).writes()).isEqualTo(2);
+            assertThat(runs.get(0).writes()).isEqualTo(3);
+            // The stamped PDF still opens in a PDF library and carries the run id in its document
+            // information dictionary (ISO 32000-1, 14.3.3).
+            try (var pdf = org.apache.pdfbox.Loader.loadPDF(lake.resolve("levels.pdf").toFile())) {
+                assertThat(pdf.getNumberOfPages()).isEqualTo(1);
+                assertThat(pdf.getDocumentInformation().getCustomMetadataValue("HeadwaterRun")).isEqualTo(runs.get(0).id());
+            }
             assertThat(runs.get(0).script()).isEqualTo("plot_levels.py");
 
             // The figure is copied to a report folder and renamed; whence still finds its run and inputs.
