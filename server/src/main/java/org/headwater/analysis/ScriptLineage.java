@@ -70,9 +70,11 @@ public final class ScriptLineage {
                 scriptObservations(root, names, script, analysis, out, now);
             }
         }
+        // SQL files in name order; tables one file defines are known to the files after it in the same pass.
+        Map<String, List<String>> definedNow = new java.util.HashMap<>();
         for (ScriptView script : scripts.values()) {
             if (script.language().equals("sql")) {
-                sqlObservations(root, sourceName, script, out, now);
+                sqlObservations(root, sourceName, script, out, now, definedNow);
             }
         }
         for (StaticEdge before : reader.staticEdges(sourceId)) {
@@ -171,23 +173,48 @@ public final class ScriptLineage {
                     uris.add(names.get(name));
                 }
             } else if (!name.contains("://")) {
+                String bySuffix = uniqueSuffixMatch(names, name);
                 // Not harvested (yet): an output the script will write, or a file outside the workspace.
-                uris.add(root.resolve(name).normalize().toUri().toString());
+                uris.add(bySuffix != null ? bySuffix : root.resolve(name).normalize().toUri().toString());
             }
         }
         return new ArrayList<>(uris);
     }
 
+    /**
+     * The one harvested dataset whose name ends with the path a script names, when the script's idea of
+     * its working folder differs from ours (a script run from {@code lab/} reading {@code raw.csv}).
+     * Only a unique match counts: two candidates are a guess, and guesses are not made.
+     */
+    static String uniqueSuffixMatch(Map<String, String> names, String path) {
+        String tail = "/" + path.replaceFirst("^(\\.\\./)+", "");
+        String found = null;
+        for (Map.Entry<String, String> e : names.entrySet()) {
+            if (e.getKey().endsWith(tail)) {
+                if (found != null && !found.equals(e.getValue())) {
+                    return null;
+                }
+                found = e.getValue();
+            }
+        }
+        return found;
+    }
+
     /** Tables and views defined by a SQL file, with column lineage from the tables they read. */
     private void sqlObservations(Path root, String sourceName, ScriptView script, List<Observation> out,
-            Set<StaticEdge> now) {
+            Set<StaticEdge> now, Map<String, List<String>> definedNow) {
         String text;
         try {
             text = Files.readString(Path.of(java.net.URI.create(script.uri())), StandardCharsets.UTF_8);
         } catch (IOException | RuntimeException e) {
             return;
         }
-        for (StatementLineage s : sql.analyze(text, SchemaLookup.none())) {
+        SchemaLookup catalogTables = knownTables(sourceName);
+        SchemaLookup known = table -> {
+            List<String> fresh = definedNow.get(tableUri(sourceName, table.toString()));
+            return fresh != null ? java.util.Optional.of(fresh) : catalogTables.columnsOf(table);
+        };
+        for (StatementLineage s : sql.analyze(text, known)) {
             if (s.target() == null || s.kind() == StatementLineage.Kind.SELECT || s.kind() == StatementLineage.Kind.UNPARSED) {
                 continue;
             }
@@ -196,6 +223,7 @@ public final class ScriptLineage {
             for (OutputColumn c : s.columns()) {
                 columns.add(new ColumnDef(c.name(), "unknown", true));
             }
+            definedNow.put(target, columns.stream().map(ColumnDef::name).toList());
             DatasetKind kind = s.kind() == StatementLineage.Kind.CREATE_VIEW ? DatasetKind.VIEW : DatasetKind.TABLE;
             out.add(new Observation.DatasetSeen(target, s.target().toString(), kind, null, "sql", null, null, null, null,
                     false, null, null, columns));
@@ -221,6 +249,16 @@ public final class ScriptLineage {
                 now.add(new StaticEdge(e.getKey(), target, script.uri()));
             }
         }
+    }
+
+    /** The columns of tables and views the catalog already holds for this source, so that {@code *} expands. */
+    private SchemaLookup knownTables(String sourceName) {
+        return table -> reader.findDatasets(tableUri(sourceName, table.toString())).stream()
+                .filter(d -> d.uri().equals(tableUri(sourceName, table.toString())))
+                .findFirst()
+                .flatMap(d -> reader.dataset(d.id(), null))
+                .filter(d -> !d.columns().isEmpty())
+                .map(d -> d.columns().stream().map(c -> c.name()).toList());
     }
 
     /** Tables named in SQL files, known to the catalog without a database: {@code sqltable:SOURCE/NAME}. */

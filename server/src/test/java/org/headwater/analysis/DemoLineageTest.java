@@ -63,4 +63,20 @@ class DemoLineageTest {
             assertThat(catalog.harvestFolder(Workspaces.demo(), true, HarvestProgress.NONE).changes()).isZero();
         }
     }
+
+    @Test
+    void aStarInOneSqlFileExpandsFromATableAnotherFileDefined(@TempDir Path lake) throws Exception {
+        java.nio.file.Files.writeString(lake.resolve("a_tables.sql"), "CREATE TABLE gauge (gauge_id INT, level_cm INT);\n");
+        java.nio.file.Files.writeString(lake.resolve("b_views.sql"), "CREATE VIEW gauge_copy AS SELECT * FROM gauge;\n");
+        try (Catalog catalog = TestCatalogs.fresh(temp.resolve("catalog2"))) {
+            // SQL files are read in name order: a_tables.sql defines gauge before b_views.sql selects from it.
+            catalog.harvestFolder(lake, false, HarvestProgress.NONE);
+            long view = catalog.reader().findDatasets("gauge_copy").get(0).id();
+            // expected: SELECT * over gauge(gauge_id, level_cm) copies both columns (SQL standard, 7.12 <query specification>)
+            assertThat(catalog.reader().dataset(view, null).orElseThrow().columns()).extracting(c -> c.name())
+                    .containsExactly("gauge_id", "level_cm");
+            assertThat(catalog.reader().columnFlowsInto(view)).extracting(f -> f.sourceColumn() + ">" + f.targetColumn() + " " + f.role())
+                    .containsExactly("gauge_id>gauge_id direct", "level_cm>level_cm direct");
+        }
+    }
 }

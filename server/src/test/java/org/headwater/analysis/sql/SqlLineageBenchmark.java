@@ -55,7 +55,7 @@ public final class SqlLineageBenchmark {
     }
 
     /** The TPC-H tables as a catalog would know them, from Headwater's own reading of the DDL. */
-    private static SchemaLookup schemaOf(SqlLineageAnalyzer analyzer, String ddl) {
+    static SchemaLookup schemaOf(SqlLineageAnalyzer analyzer, String ddl) {
         Map<QualifiedName, List<String>> tables = new HashMap<>();
         for (StatementLineage table : analyzer.analyze(ddl, SchemaLookup.none())) {
             tables.put(table.target(), table.columns().stream().map(OutputColumn::name).toList());
