@@ -4,7 +4,9 @@ import com.fasterxml.jackson.core.JsonProcessingException;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import com.fasterxml.jackson.databind.SerializationFeature;
 import java.util.Collection;
+import java.util.List;
 import java.util.Map;
+import org.headwater.model.ColumnDef;
 
 /** Canonical JSON text for values kept in the store, so that equal facts compare equal as strings. */
 public final class Json {
@@ -20,6 +22,11 @@ public final class Json {
             return null;
         }
         return write(details);
+    }
+
+    /** A column list as a JSON array of {name, dataType, nullable}, or null for no columns known. */
+    static String columns(List<ColumnDef> columns) {
+        return columns == null ? null : write(columns);
     }
 
     static String stringArray(Collection<String> values) {

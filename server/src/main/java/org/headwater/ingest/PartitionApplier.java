@@ -2,25 +2,19 @@ package org.headwater.ingest;
 
 import static org.headwater.store.schema.Tables.DATASET_PARTITION;
 
-import com.fasterxml.jackson.core.JsonProcessingException;
-import com.fasterxml.jackson.databind.ObjectMapper;
 import java.time.OffsetDateTime;
-import java.util.List;
 import java.util.Objects;
 import org.headwater.ingest.Observation.PartitionGone;
 import org.headwater.ingest.Observation.PartitionSeen;
-import org.headwater.model.ColumnDef;
 import org.headwater.model.DatasetKind;
 import org.headwater.store.schema.tables.records.DatasetPartitionRecord;
 
 /** Applies the member files of partitioned sets, each with its own history. */
 final class PartitionApplier {
-    private static final ObjectMapper JSON = new ObjectMapper();
-
     void apply(Tx tx, PartitionSeen seen) {
         long set = DatasetApplier.identity(tx, seen.setUri(), seen.setName(), DatasetKind.FILE_SET, seen.sourceId());
         OffsetDateTime modified = DatasetApplier.toStoredTime(seen.modifiedAt());
-        String columns = columnsJson(seen.columns());
+        String columns = Json.columns(seen.columns());
         String error = seen.error() == null ? null : Tx.truncate(seen.error(), 4000);
         DatasetPartitionRecord current = current(tx, set, seen.uri());
         if (current != null
@@ -71,16 +65,5 @@ final class PartitionApplier {
                 .where(DATASET_PARTITION.DATASET_ID.eq(set), DATASET_PARTITION.URI.eq(uri),
                         DATASET_PARTITION.VALID_TO.isNull())
                 .fetchOne();
-    }
-
-    static String columnsJson(List<ColumnDef> columns) {
-        if (columns == null) {
-            return null;
-        }
-        try {
-            return JSON.writeValueAsString(columns);
-        } catch (JsonProcessingException e) {
-            throw new IllegalStateException("Columns are always representable as JSON", e);
-        }
     }
 }

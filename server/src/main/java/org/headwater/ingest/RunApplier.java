@@ -62,7 +62,7 @@ final class RunApplier {
                     .set(RUN_IO.SIZE_BYTES, io.sizeBytes())
                     .set(RUN_IO.CONTENT_HASH, io.contentHash())
                     .set(RUN_IO.VIA, io.via() == null ? null : Tx.truncate(io.via(), 200))
-                    .set(RUN_IO.COLUMNS_JSON, PartitionApplier.columnsJson(io.columns()))
+                    .set(RUN_IO.COLUMNS_JSON, Json.columns(io.columns()))
                     .set(RUN_IO.ROW_COUNT, io.rowCount())
                     .execute();
             if (io.direction().equals("read")) {
