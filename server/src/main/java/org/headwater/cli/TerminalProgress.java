@@ -8,6 +8,7 @@ import java.nio.file.Path;
 import java.nio.file.SimpleFileVisitor;
 import java.nio.file.attribute.BasicFileAttributes;
 import java.util.concurrent.atomic.AtomicLong;
+import org.headwater.harvest.FolderHarvester;
 import org.headwater.harvest.HarvestProgress;
 
 /**
@@ -75,13 +76,13 @@ final class TerminalProgress implements HarvestProgress {
             Files.walkFileTree(root, new SimpleFileVisitor<>() {
                 @Override
                 public FileVisitResult preVisitDirectory(Path dir, BasicFileAttributes attrs) {
-                    boolean hidden = !dir.equals(root) && dir.getFileName().toString().startsWith(".");
+                    boolean hidden = !dir.equals(root) && FolderHarvester.isHidden(dir);
                     return hidden ? FileVisitResult.SKIP_SUBTREE : FileVisitResult.CONTINUE;
                 }
 
                 @Override
                 public FileVisitResult visitFile(Path file, BasicFileAttributes attrs) {
-                    if (attrs.isRegularFile() && !file.getFileName().toString().startsWith(".")) {
+                    if (attrs.isRegularFile() && !FolderHarvester.isHidden(file)) {
                         n.incrementAndGet();
                     }
                     return FileVisitResult.CONTINUE;

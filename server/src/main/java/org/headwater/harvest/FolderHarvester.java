@@ -429,7 +429,8 @@ public final class FolderHarvester {
         }
     }
 
-    private static boolean isHidden(Path path) {
+    /** Whether a file or folder is hidden by the usual convention (a name starting with a dot); never harvested. */
+    public static boolean isHidden(Path path) {
         Path name = path.getFileName();
         return name != null && name.toString().startsWith(".");
     }
