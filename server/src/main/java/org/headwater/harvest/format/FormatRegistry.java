@@ -14,9 +14,10 @@ public final class FormatRegistry {
     /** The readers that ship with Headwater. */
     public static FormatRegistry standard() {
         // Readers that recognise content by its signature come first, so a ".csv" holding a PNG or a
-        // Parquet file goes to the reader of what it holds.
-        return new FormatRegistry(List.of(new ParquetReader(), new FigureReader(), new DelimitedTextReader(),
-                new JsonRecordsReader()));
+        // Parquet file goes to the reader of what it holds; JSON comes before delimited text because NDJSON
+        // lines, full of commas, would otherwise pass for a table.
+        return new FormatRegistry(List.of(new ParquetReader(), new FigureReader(), new JsonRecordsReader(),
+                new DelimitedTextReader()));
     }
 
     /** Reads the sample with the first reader that accepts it. */

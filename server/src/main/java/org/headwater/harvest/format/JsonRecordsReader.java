@@ -26,7 +26,25 @@ public final class JsonRecordsReader implements FormatReader {
 
     @Override
     public boolean accepts(Sample sample) {
-        return EXTENSIONS.contains(sample.extension());
+        if (EXTENSIONS.contains(sample.extension())) {
+            return true;
+        }
+        // Any other name: JSON by content. The first-byte test keeps this cheap for the many files that
+        // cannot be JSON; the sniffer then insists on a parse, so a CSV whose header starts with '[' stays CSV.
+        if (!startsLikeJson(sample.head())) {
+            return false;
+        }
+        String format = ContentSniffer.sniff(sample).format();
+        return format.equals("json") || format.equals("ndjson");
+    }
+
+    /** Whether the first character after whitespace (and a UTF-8 BOM) opens a JSON object or array. */
+    static boolean startsLikeJson(byte[] head) {
+        int i = head.length >= 3 && (head[0] & 0xff) == 0xEF && (head[1] & 0xff) == 0xBB && (head[2] & 0xff) == 0xBF ? 3 : 0;
+        while (i < head.length && (head[i] == ' ' || head[i] == '\t' || head[i] == '\r' || head[i] == '\n')) {
+            i++;
+        }
+        return i < head.length && (head[i] == '{' || head[i] == '[');
     }
 
     @Override
