@@ -46,13 +46,13 @@ public final class DelimitedTextReader implements FormatReader {
 
     /**
      * Whether a file not named as a table really is one. Prose with commas also splits into "columns", so
-     * the bar is higher than for a {@code .csv}: several columns, no lines to skip before or after, and
-     * either a header or at least one column that is not text. (common practice, no source)
+     * the bar is higher than for a {@code .csv}: several columns, no footer, and either a header or at least
+     * one column that is not text. Preamble lines are allowed (exported tables often carry a title); a
+     * header-less table of text only is left as text, since prose looks the same. (our rule)
      */
     static boolean looksLikeTable(CsvSniff sniff) {
         boolean typed = sniff.columns().stream().anyMatch(c -> c.type() != LogicalType.TEXT);
-        return sniff.columns().size() > 1 && sniff.skipLines() == 0 && sniff.footerLines() == 0
-                && (sniff.header() || typed);
+        return sniff.columns().size() > 1 && sniff.footerLines() == 0 && (sniff.header() || typed);
     }
 
     @Override

@@ -38,7 +38,7 @@ final class DialectCandidates {
       delimiters.add(forcedDelimiter);
     } else {
       for (char d : DELIMITERS.toCharArray()) {
-        if (seen[d]) {
+        if (seen[d] && !(d == ':' && onlyInClockTimes(text, from, to))) {
           delimiters.add(d);
         }
       }
@@ -60,6 +60,37 @@ final class DialectCandidates {
       }
     }
     return dialects;
+  }
+
+  /**
+   * Whether every ':' sits inside a clock time, two digits on its right and one or two on its left
+   * ({@code 9:05}, {@code 10:11:12}). Such a colon separates hours from minutes; scored as a
+   * delimiter it cuts each timestamp into numbers, which the type score rewards, and a table with a
+   * time column or two would be read as colon-separated (our rule; ISO 8601 section 4.2.2.2 writes
+   * hh:mm:ss so).
+   */
+  static boolean onlyInClockTimes(CharSequence text, int from, int to) {
+    boolean any = false;
+    for (int i = from; i < to; i++) {
+      if (text.charAt(i) != ':') {
+        continue;
+      }
+      any = true;
+      boolean right = i + 2 < to && isDigit(text.charAt(i + 1)) && isDigit(text.charAt(i + 2))
+          && (i + 3 >= to || !isDigit(text.charAt(i + 3)));
+      int left = 0;
+      while (left < 3 && i - left - 1 >= from && isDigit(text.charAt(i - left - 1))) {
+        left++;
+      }
+      if (!right || left == 0 || left > 2) {
+        return false;
+      }
+    }
+    return any;
+  }
+
+  private static boolean isDigit(char c) {
+    return c >= '0' && c <= '9';
   }
 
   static int delimiterRank(char delimiter) {

@@ -3,6 +3,7 @@ package org.headwater.harvest.format.csv;
 import java.util.ArrayList;
 import java.util.Comparator;
 import java.util.List;
+import java.util.function.Predicate;
 
 /**
  * Picks the dialect with the highest data-consistency score (see {@link DialectScorer}).
@@ -23,6 +24,8 @@ import java.util.List;
 final class DialectDetector {
 
   private static final double TIE = 1e-9;
+  /** Below this share of typed cells a table is names and labels only (our threshold). */
+  private static final double WORDS_ONLY = 0.05;
 
   private DialectDetector() {}
 
@@ -44,8 +47,28 @@ final class DialectDetector {
       best = Math.max(best, score.consistency());
     }
     double max = best;
-    DialectScore chosen = scores.stream()
-        .filter(s -> s.parsed() != null && s.consistency() >= max * (1 - TIE))
+    DialectScore chosen = pick(scores, s -> s.consistency() >= max * (1 - TIE));
+    if (chosen.type() < WORDS_ONLY) {
+      // Almost no cell is of a known type under the best dialect: a table of names and labels. T then
+      // measures only which delimiter chops a stray digit off a label ("pool 3"), so the row pattern
+      // alone decides (our rule; the paper's score has no case for tables without typed cells).
+      double bestPattern = scores.stream().filter(s -> s.parsed() != null)
+          .mapToDouble(DialectScore::pattern).max().orElse(0.0);
+      chosen = pick(scores, s -> s.pattern() >= bestPattern * (1 - TIE));
+    }
+    Dialect dialect = chosen.dialect();
+    if (dialect.quote() == null && dialect.delimiter() != '"' && !contains(text, from, to, '"')) {
+      Escape escape = dialect.escape() == Escape.BACKSLASH ? Escape.BACKSLASH : Escape.DOUBLE;
+      return new DialectScore(new Dialect(dialect.delimiter(), '"', escape), chosen.pattern(),
+          chosen.type(), chosen.consistency(), chosen.parsed());
+    }
+    return chosen;
+  }
+
+  /** Among the candidates {@code best} admits, the one the tie rules of the class comment prefer. */
+  private static DialectScore pick(List<DialectScore> scores, Predicate<DialectScore> best) {
+    return scores.stream()
+        .filter(s -> s.parsed() != null && best.test(s))
         .min(Comparator
             .comparingInt((DialectScore s) -> s.parsed().irregularities())
             .thenComparingInt(s -> -s.parsed().quotedFields())
@@ -54,13 +77,6 @@ final class DialectDetector {
             .thenComparingInt(s -> DialectCandidates.quoteRank(s.dialect().quote()))
             .thenComparingInt(s -> DialectCandidates.escapeRank(s.dialect().escape())))
         .orElseThrow();
-    Dialect dialect = chosen.dialect();
-    if (dialect.quote() == null && dialect.delimiter() != '"' && !contains(text, from, to, '"')) {
-      Escape escape = dialect.escape() == Escape.BACKSLASH ? Escape.BACKSLASH : Escape.DOUBLE;
-      return new DialectScore(new Dialect(dialect.delimiter(), '"', escape), chosen.pattern(),
-          chosen.type(), chosen.consistency(), chosen.parsed());
-    }
-    return chosen;
   }
 
   /**

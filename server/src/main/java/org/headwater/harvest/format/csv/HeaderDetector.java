@@ -23,6 +23,9 @@ final class HeaderDetector {
   /** Body rows compared with the candidate: enough for stable types, cheap. */
   private static final int BODY_ROWS = 200;
 
+  /** Values a text column needs before its repetitions say anything about the cell above it. */
+  private static final int REPEATED_LABELS_MIN = 8;
+
   private HeaderDetector() {}
 
   static RowRole classify(CsvRecord first, List<CsvRecord> following, int width,
@@ -82,10 +85,17 @@ final class HeaderDetector {
     return headerVotes == dataVotes ? RowRole.HEADER : RowRole.DATA;
   }
 
-  /** +1 header-like, -1 data-like, 0 no opinion, for a cell above a text column. */
+  /**
+   * +1 header-like, -1 data-like, 0 no opinion, for a cell above a text column. Besides the
+   * constant-length test, a cell above a column of repeated labels (at least 8 values, at most
+   * half of them distinct) that is not itself one of those labels votes header: a category
+   * column names its few values again and again, its name never (our rule).
+   */
   private static int textVote(String cell, int column, List<CsvRecord> body) {
     int length = -1;
     boolean constantLength = true;
+    Set<String> distinct = new HashSet<>();
+    int values = 0;
     for (CsvRecord row : body) {
       String value = Cells.trim(row.cells().get(column));
       if (MissingValues.isMissing(value)) {
@@ -94,13 +104,18 @@ final class HeaderDetector {
       if (value.equals(cell)) {
         return -1;
       }
+      values++;
+      distinct.add(value);
       if (length < 0) {
         length = value.length();
       } else if (value.length() != length) {
         constantLength = false;
       }
     }
-    return constantLength && length >= 0 && cell.length() != length ? 1 : 0;
+    if (constantLength && length >= 0 && cell.length() != length) {
+      return 1;
+    }
+    return values >= REPEATED_LABELS_MIN && distinct.size() * 2 <= values ? 1 : 0;
   }
 
   /** A lone record is a header when all its cells are distinct, non-empty and not values. */
