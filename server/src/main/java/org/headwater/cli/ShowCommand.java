@@ -76,6 +76,7 @@ final class ShowCommand implements Callable<Integer> {
             d.owners().forEach(o -> out.printf("  owner:    %s (%s)%n", o.name(), o.reason()));
             d.upstream().forEach(e -> out.printf("  upstream: %s via %s [%s]%n", e.datasetName(), e.script(), e.evidence()));
             d.downstream().forEach(e -> out.printf("  downstream: %s via %s [%s]%n", e.datasetName(), e.script(), e.evidence()));
+            open.reader().copiesOf(d.id(), at).forEach(c -> out.printf("  same content: %s%n", c.name()));
         }
         out.flush();
         return Main.OK;

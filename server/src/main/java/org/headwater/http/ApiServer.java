@@ -71,6 +71,7 @@ public final class ApiServer implements AutoCloseable {
             config.routes.get("/api/scripts/{id}/reads", scripts::reads);
             config.routes.get("/api/scripts/{id}/runs", scripts::runs);
             config.routes.get("/api/datasets/{id}/runs", datasets::runs);
+            config.routes.get("/api/datasets/{id}/copies", datasets::copies);
             config.routes.put("/api/datasets/{id}/note", datasets::putNote);
             config.routes.get("/api/search", search::search);
             config.routes.get("/api/scripts", scripts::list);

@@ -52,6 +52,12 @@ final class DatasetRoutes {
         ctx.json(org.headwater.lineage.LineageReport.of(catalog.get().reader(), find(ctx)));
     }
 
+    /** Other datasets with the same content (copies, renamed files), the first seen first. */
+    void copies(Context ctx) {
+        DatasetView dataset = find(ctx);
+        ctx.json(catalog.get().reader().copiesOf(dataset.id(), Params.asOf(ctx)));
+    }
+
     /** Replaces the description and tags; the author is recorded with the change. */
     void putNote(Context ctx) {
         DatasetView dataset = find(ctx);

@@ -315,6 +315,31 @@ public final class CatalogReader {
                         r.value7(), instant(r.value8()), r.value9(), r.value10() != null));
     }
 
+    /**
+     * The other datasets holding the same bytes as {@code id} (equal SHA-256), now or at {@code asOf}: copies
+     * and renamed files. The one seen first comes first; it is the likely original.
+     */
+    public List<DatasetSummary> copiesOf(long id, Instant asOf) {
+        var state = Validity.at(DATASET_STATE.VALID_FROM, DATASET_STATE.VALID_TO, asOf);
+        String hash = db.select(DATASET_STATE.CONTENT_HASH).from(DATASET_STATE)
+                .where(DATASET_STATE.DATASET_ID.eq(id), state).fetchOne(DATASET_STATE.CONTENT_HASH);
+        if (hash == null) {
+            return List.of();
+        }
+        List<Long> ids = db.select(DATASET.ID).from(DATASET_STATE).join(DATASET).on(DATASET.ID.eq(DATASET_STATE.DATASET_ID))
+                .where(DATASET_STATE.CONTENT_HASH.eq(hash), state, DATASET.ID.ne(id))
+                .orderBy(DATASET.FIRST_SEEN, DATASET.ID).limit(200).fetch(DATASET.ID);
+        Map<Long, DatasetSummary> byId = new HashMap<>();
+        summaries(ids).forEach(d -> byId.put(d.id(), d));
+        List<DatasetSummary> out = new ArrayList<>();
+        ids.forEach(i -> {
+            if (byId.containsKey(i)) {
+                out.add(byId.get(i));
+            }
+        });
+        return out;
+    }
+
     /** Scripts present now, by name. */
     public List<ScriptView> scripts(int offset, int limit) {
         return scriptQuery(SCRIPT_STATE.VALID_TO.isNull(), offset, limit);
