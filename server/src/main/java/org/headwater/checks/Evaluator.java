@@ -59,9 +59,10 @@ final class Evaluator {
         }
         if (!timed.isEmpty()) {
             Input newest = timed.stream().max(Comparator.comparing(Input::modifiedAt)).orElseThrow();
-            return new Verdict(FreshnessState.FRESH, modified, "Modified at " + time(modified) + ", after all of its "
-                    + count(timed.size(), "input") + " (the newest, " + newest.name() + ", at " + time(newest.modifiedAt())
-                    + ").", null);
+            String compared = timed.size() == 1 ? "its only input (" + newest.name()
+                    : "all of its " + timed.size() + " inputs (the newest, " + newest.name();
+            return new Verdict(FreshnessState.FRESH, modified, "Modified at " + time(modified) + ", after " + compared
+                    + ", at " + time(newest.modifiedAt()) + ").", null);
         }
         return new Verdict(FreshnessState.UNKNOWN, now, "It has no freshness policy and no known inputs to compare"
                 + " it with.", null);
@@ -100,10 +101,6 @@ final class Evaluator {
         Duration gap = Duration.between(modified, input.modifiedAt());
         return lead + " " + input.name() + " was modified at " + time(input.modifiedAt()) + ", "
                 + Durations.words(gap) + " after this dataset (" + time(modified) + ").";
-    }
-
-    private static String count(int n, String noun) {
-        return n + " " + noun + (n == 1 ? "" : "s");
     }
 
     /** Times in sentences to the second: file systems give nanoseconds nobody wants to read. */
