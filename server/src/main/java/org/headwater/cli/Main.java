@@ -7,7 +7,8 @@ import picocli.CommandLine.Command;
 @Command(name = "headwater", mixinStandardHelpOptions = true, versionProvider = VersionProvider.class,
         description = "A lineage-aware catalog of a team's files, tables and scripts.",
         subcommands = {ServeCommand.class, HarvestCommand.class, SearchCommand.class, ShowCommand.class,
-                ReindexCommand.class, CheckCommand.class, LineageCommand.class, ReadsCommand.class, WhenceCommand.class, SniffCommand.class,
+                ReindexCommand.class, LineageCommand.class, ReadsCommand.class, WhenceCommand.class, SniffCommand.class,
+                CheckCommand.class,
                 DemoCommand.class, CommandLine.HelpCommand.class})
 public final class Main implements Runnable {
 
