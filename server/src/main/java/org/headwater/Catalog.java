@@ -6,6 +6,8 @@ import java.nio.file.Files;
 import java.nio.file.Path;
 import java.time.Clock;
 import org.headwater.analysis.ScriptLineage;
+import org.headwater.checks.FreshnessChecks;
+import org.headwater.checks.PolicySync;
 import org.headwater.harvest.FolderHarvester;
 import org.headwater.harvest.HarvestProgress;
 import org.headwater.harvest.HarvestSummary;
@@ -32,6 +34,7 @@ public final class Catalog implements AutoCloseable {
     private final HarvestJournal journal;
     private final SearchIndex index;
     private final LineageGraph lineage;
+    private final Clock clock;
 
     private Catalog(Path dataDir, Store store, SearchIndex index, Clock clock) {
         this.dataDir = dataDir;
@@ -41,6 +44,7 @@ public final class Catalog implements AutoCloseable {
         this.sources = new Sources(store, clock);
         this.journal = new HarvestJournal(store, clock);
         this.index = index;
+        this.clock = clock;
         // Derived like the index: built from the store now, kept current by the ingestion path.
         this.lineage = LineageGraph.load(store);
         ingestor.addListener(index);
@@ -73,8 +77,42 @@ public final class Catalog implements AutoCloseable {
     /** Harvests a local folder through the ingestion path; the catalog directory itself is never harvested. */
     public HarvestSummary harvestFolder(Path folder, boolean full, HarvestProgress progress) throws IOException {
         FolderHarvester.Options options = FolderHarvester.Options.defaults().excluding(dataDir).withFull(full);
-        return new FolderHarvester(ingestor, sources, journal, reader, FormatRegistry.standard(), options,
-                new ScriptLineage(reader)).harvest(folder, progress);
+        HarvestSummary summary = new FolderHarvester(ingestor, sources, journal, reader, FormatRegistry.standard(),
+                options, new ScriptLineage(reader)).harvest(folder, progress);
+        return withPolicyFile(folder, summary);
+    }
+
+    /** Reads the folder's freshness policy file after its files; a bad line is a harvest error, never a stop. */
+    private HarvestSummary withPolicyFile(Path folder, HarvestSummary summary) throws IOException {
+        PolicySync.FileResult result = new PolicySync(store, ingestor).applyFile(folder, "harvest:" + summary.harvestId());
+        if (result.problems().isEmpty()) {
+            return summary;
+        }
+        String uri = result.file().toUri().toString();
+        var errorsByKind = new java.util.TreeMap<>(summary.errorsByKind());
+        var firstErrors = new java.util.ArrayList<>(summary.firstErrors());
+        for (var problem : result.problems()) {
+            String message = (problem.line() > 0 ? "line " + problem.line() + ": " : "") + problem.message();
+            journal.error(summary.harvestId(), uri, "freshness_policy", message);
+            errorsByKind.merge("freshness_policy", 1, Integer::sum);
+            firstErrors.add(new org.headwater.store.Views.HarvestErrorView(uri, "freshness_policy", message));
+        }
+        journal.addErrors(summary.harvestId(), result.problems().size());
+        String status = summary.status().equals(HarvestJournal.OK) ? HarvestJournal.WITH_ERRORS : summary.status();
+        return new HarvestSummary(summary.harvestId(), summary.source(), summary.root(), status, summary.filesSeen(),
+                summary.filesUnchanged(), summary.filesIgnored(), summary.datasets(), summary.scripts(), summary.changes(),
+                summary.removed(), summary.errors() + result.problems().size(), errorsByKind, firstErrors,
+                summary.elapsedMillis());
+    }
+
+    /** Freshness checks of this catalog's datasets, on the catalog's clock. */
+    public FreshnessChecks freshness() {
+        return new FreshnessChecks(store, lineage, ingestor, clock);
+    }
+
+    /** Freshness policies from policy files and from people. */
+    public PolicySync policies() {
+        return new PolicySync(store, ingestor);
     }
 
     public Path dataDir() {

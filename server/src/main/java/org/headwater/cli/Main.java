@@ -9,6 +9,7 @@ import picocli.CommandLine.Command;
         subcommands = {ServeCommand.class, HarvestCommand.class, SearchCommand.class, ShowCommand.class,
                 ReindexCommand.class, LineageCommand.class, ReadsCommand.class, WhenceCommand.class, SniffCommand.class,
                 ExportCommand.class,
+                CheckCommand.class,
                 DemoCommand.class, CommandLine.HelpCommand.class})
 public final class Main implements Runnable {
 

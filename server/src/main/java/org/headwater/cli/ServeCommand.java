@@ -24,16 +24,52 @@ final class ServeCommand implements Callable<Integer> {
     @Mixin
     CatalogOptions catalog;
 
+    @Option(names = "--check-every", paramLabel = "DURATION", defaultValue = "10m",
+            description = "Run the freshness checks this often, the first time at start (default ${DEFAULT-VALUE};"
+                    + " for example 90s, 30m, 1h; 'off' runs none).")
+    String checkEvery;
+
+    @Option(names = "--webhook", paramLabel = "URL",
+            description = "POST the freshness state changes of each check run to this http(s) URL as JSON"
+                    + " (retried up to 5 times with backoff).")
+    java.net.URI webhook;
+
     @Spec
     picocli.CommandLine.Model.CommandSpec spec;
 
     @Override
     public Integer call() throws InterruptedException {
+        java.time.Duration period = checkPeriod();
+        org.headwater.checks.Webhook hook = webhookOption();
         // The store opens while the HTTP server starts: the two are the bulk of start-up time.
         serveUntilStopped(CompletableFuture.supplyAsync(catalog::open), listen.host, listen.port, spec.commandLine().getOut(),
                 server -> "Headwater is serving " + catalog.dataDir.toAbsolutePath().normalize() + " at " + server.url(),
+                open -> period == null ? () -> { }
+                        : org.headwater.checks.CheckSchedule.start(open::freshness, period, hook),
                 () -> { });
         return Main.OK;
+    }
+
+    private java.time.Duration checkPeriod() {
+        if (checkEvery.trim().equalsIgnoreCase("off")) {
+            return null;
+        }
+        try {
+            return org.headwater.checks.Durations.parse(checkEvery);
+        } catch (IllegalArgumentException e) {
+            throw new Problems.UsageProblem("--check-every: " + e.getMessage());
+        }
+    }
+
+    private org.headwater.checks.Webhook webhookOption() {
+        if (webhook == null) {
+            return null;
+        }
+        try {
+            return new org.headwater.checks.Webhook(org.headwater.checks.Webhook.Settings.defaults(webhook));
+        } catch (IllegalArgumentException e) {
+            throw new Problems.UsageProblem("--webhook: " + e.getMessage());
+        }
     }
 
     /**
@@ -44,6 +80,16 @@ final class ServeCommand implements Callable<Integer> {
      */
     static void serveUntilStopped(CompletableFuture<Catalog> opening, String host, int port, PrintWriter out,
             Function<ApiServer, String> greeting, Runnable afterClose) throws InterruptedException {
+        serveUntilStopped(opening, host, port, out, greeting, open -> () -> { }, afterClose);
+    }
+
+    /**
+     * As above, and starts {@code alongside} (the scheduled checks) once the catalog is open; what it
+     * returns is closed before the server and the catalog.
+     */
+    static void serveUntilStopped(CompletableFuture<Catalog> opening, String host, int port, PrintWriter out,
+            Function<ApiServer, String> greeting, Function<Catalog, AutoCloseable> alongside, Runnable afterClose)
+            throws InterruptedException {
         ApiServer server;
         try {
             server = ApiServer.start(opening, host, port);
@@ -67,9 +113,11 @@ final class ServeCommand implements Callable<Integer> {
         }
         out.println(greeting.apply(server));
         out.flush();
+        AutoCloseable companion = alongside.apply(catalog);
         CountDownLatch stopped = new CountDownLatch(1);
         Runtime.getRuntime().addShutdownHook(new Thread(() -> {
             try {
+                closeQuietly(companion);
                 server.close();
                 catalog.close();
             } finally {
@@ -78,6 +126,14 @@ final class ServeCommand implements Callable<Integer> {
             }
         }, "headwater-shutdown"));
         stopped.await();
+    }
+
+    private static void closeQuietly(AutoCloseable closeable) {
+        try {
+            closeable.close();
+        } catch (Exception e) {
+            // Stopping anyway; the catalog and server still close.
+        }
     }
 
     static String rootMessage(Throwable e) {

@@ -44,6 +44,7 @@ public final class ApiServer implements AutoCloseable {
         var harvests = new HarvestRoutes(catalog);
         var runs = new RunRoutes(catalog);
         var whence = new WhenceRoutes(catalog);
+        var freshness = new FreshnessRoutes(catalog);
         long startedAt = System.currentTimeMillis();
         Javalin app = Javalin.create(config -> {
             config.jsonMapper(new JavalinJackson(mapper, false));
@@ -81,6 +82,10 @@ public final class ApiServer implements AutoCloseable {
             config.routes.get("/api/whence", whence::whence);
             config.routes.get("/api/harvests", harvests::list);
             config.routes.get("/api/harvests/{id}", harvests::one);
+            config.routes.get("/api/freshness", freshness::all);
+            config.routes.get("/api/freshness/history", freshness::history);
+            config.routes.get("/api/datasets/{id}/freshness", freshness::one);
+            config.routes.put("/api/datasets/{id}/freshness-policy", freshness::putPolicy);
             config.routes.exception(ApiError.class, (e, ctx) ->
                     ctx.status(e.status()).json(new ApiError.Body(e.code(), e.getMessage())));
             config.routes.exception(Exception.class, (e, ctx) -> {

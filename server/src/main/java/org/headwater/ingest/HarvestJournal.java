@@ -67,6 +67,15 @@ public final class HarvestJournal {
                 .execute();
     }
 
+    /** Counts errors found after a harvest's files were done (its policy file), which make it one with errors. */
+    public void addErrors(long harvestId, int errors) {
+        store.dsl().update(HARVEST)
+                .set(HARVEST.ERRORS, HARVEST.ERRORS.plus(errors))
+                .set(HARVEST.STATUS, org.jooq.impl.DSL.when(HARVEST.STATUS.eq(OK), WITH_ERRORS).otherwise(HARVEST.STATUS))
+                .where(HARVEST.ID.eq(harvestId))
+                .execute();
+    }
+
     private OffsetDateTime now() {
         return OffsetDateTime.ofInstant(clock.instant(), ZoneOffset.UTC);
     }

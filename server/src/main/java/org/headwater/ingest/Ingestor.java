@@ -37,6 +37,7 @@ public final class Ingestor {
     private final PartitionApplier partitions = new PartitionApplier();
     private final RunApplier runs = new RunApplier(edges);
     private final ReferenceApplier references = new ReferenceApplier();
+    private final FreshnessApplier freshness = new FreshnessApplier();
 
     public Ingestor(Store store, Clock clock) {
         this.store = store;
@@ -108,6 +109,12 @@ public final class Ingestor {
             owners.apply(tx, o);
         } else if (observation instanceof OwnerRemoved o) {
             owners.apply(tx, o);
+        } else if (observation instanceof Observation.FreshnessPolicySet o) {
+            freshness.apply(tx, o);
+        } else if (observation instanceof Observation.FreshnessPolicyRemoved o) {
+            freshness.apply(tx, o);
+        } else if (observation instanceof Observation.FreshnessChecked o) {
+            freshness.apply(tx, o);
         } else {
             throw new IllegalArgumentException("No applier for " + observation.getClass().getSimpleName());
         }

@@ -222,4 +222,44 @@ public sealed interface Observation {
             Objects.requireNonNull(owner, "owner");
         }
     }
+
+    /**
+     * A dataset is held to a freshness policy.
+     *
+     * @param policy the policy's canonical text, as {@code org.headwater.checks.Policy} writes it
+     * @param setBy who said so: the policy file and its line, or {@code api:} and a person's name
+     */
+    record FreshnessPolicySet(String uri, String policy, String setBy) implements Observation {
+        public FreshnessPolicySet {
+            Objects.requireNonNull(uri, "uri");
+            Objects.requireNonNull(policy, "policy");
+            Objects.requireNonNull(setBy, "setBy");
+        }
+    }
+
+    /** A dataset is no longer held to a freshness policy (the file's rule went, or a person removed it). */
+    record FreshnessPolicyRemoved(String uri, String setBy) implements Observation {
+        public FreshnessPolicyRemoved {
+            Objects.requireNonNull(uri, "uri");
+            Objects.requireNonNull(setBy, "setBy");
+        }
+    }
+
+    /**
+     * A freshness check found a dataset in this state. Seeing the same state (and the same newer input)
+     * again changes nothing, so the first sighting's {@code since} is kept.
+     *
+     * @param state {@code fresh}, {@code due}, {@code late}, {@code stale} or {@code unknown}
+     * @param policy the canonical text of the policy judged against, or null
+     * @param newerInputUri for {@code stale}, the input that is newer than the dataset, else null
+     */
+    record FreshnessChecked(String uri, String state, Instant since, String why, String policy, String newerInputUri)
+            implements Observation {
+        public FreshnessChecked {
+            Objects.requireNonNull(uri, "uri");
+            Objects.requireNonNull(state, "state");
+            Objects.requireNonNull(since, "since");
+            Objects.requireNonNull(why, "why");
+        }
+    }
 }
