@@ -44,6 +44,7 @@ public final class ApiServer implements AutoCloseable {
         var harvests = new HarvestRoutes(catalog);
         var runs = new RunRoutes(catalog);
         var whence = new WhenceRoutes(catalog);
+        var ui = new UiRoutes(catalog);
         long startedAt = System.currentTimeMillis();
         Javalin app = Javalin.create(config -> {
             config.jsonMapper(new JavalinJackson(mapper, false));
@@ -80,6 +81,8 @@ public final class ApiServer implements AutoCloseable {
             config.routes.get("/api/whence", whence::whence);
             config.routes.get("/api/harvests", harvests::list);
             config.routes.get("/api/harvests/{id}", harvests::one);
+            config.routes.get("/api/ui/overview", ui::overview);
+            config.routes.get("/api/ui/figure/{id}", ui::figure);
             config.routes.exception(ApiError.class, (e, ctx) ->
                     ctx.status(e.status()).json(new ApiError.Body(e.code(), e.getMessage())));
             config.routes.exception(Exception.class, (e, ctx) -> {
