@@ -89,6 +89,15 @@ const hwGraph = (function () {
     return text.length <= max ? text : "\u2026" + text.slice(text.length - max + 1);
   }
 
+  /** A name that fits the box: whole when short, else its last path segments (the file name first). */
+  function fitted(name, max) {
+    if (name.length <= max) return name;
+    const parts = name.split("/");
+    let out = parts.pop();
+    while (parts.length && out.length + parts[parts.length - 1].length + 1 <= max - 2) out = parts.pop() + "/" + out;
+    return short("\u2026/" + out, max);
+  }
+
   /** Draws the laid-out graph into an <svg>; returns Map id -> node element. */
   function draw(target, graph, placed, signs) {
     const pos = placed.pos;
@@ -152,7 +161,7 @@ const hwGraph = (function () {
       });
       g.append(svg("rect", { width: p.w, height: p.h, rx: "6", class: "box" }));
       g.append(svg("text", { x: "10", y: "22", class: "sign" }, (signs && signs[n.kind]) || "\u2022"));
-      g.append(svg("text", { x: "30", y: "22", class: "label" }, short(n.name, 27)));
+      g.append(svg("text", { x: "30", y: "22", class: "label" }, fitted(n.name, 25)));
       g.append(svg("title", {}, n.name));
       if (n.expandable) {
         const t = svg("g", { class: "toggle", "data-toggle": String(n.id), transform: "translate(" + (p.w - 24) + ",8)" });

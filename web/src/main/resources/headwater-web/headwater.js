@@ -15,11 +15,11 @@ const hw = {
 
   /**
    * GET an endpoint that a newer server may have and this one may not: null when the server has no such
-   * endpoint (404 "not_found" for the route itself), so the page can say "not available" instead of failing.
+   * endpoint (a 404 without our error body, or one that says so), so the page can say "not available" instead of failing.
    */
   async optional(path) {
     const answer = await hw.fetchJson(path);
-    if (answer.status === 404 && /No such endpoint/.test(answer.body.message || "")) return null;
+    if (answer.status === 404 && (!answer.body.error || /No such endpoint/.test(answer.body.message || ""))) return null;
     if (!answer.ok) throw hw.failure(answer);
     return answer.body;
   },
