@@ -48,6 +48,7 @@ hw.views.whence = async function (main, route) {
     if (w.datasets.length) {
       head.append(hw.h("p", null, "The catalog knows it as ", ...w.datasets.flatMap((n, i) => [i ? ", " : "", hw.link(hw.datasetByName(n), n, "known-as")]), "."));
     }
+    for (const name of w.datasets.slice(0, 3)) preview(head, name);
     if (!w.producers.length) {
       head.append(hw.el("p", "Known, but nothing is recorded about what made it.", "verdict"));
     }
@@ -62,6 +63,18 @@ hw.views.whence = async function (main, route) {
       }
       answer.append(chain);
     }
+  }
+
+  /** A figure the file is known as gets its picture shown, from the harvested copy. */
+  async function preview(into, name) {
+    const found = await hw.get("/api/datasets?match=" + encodeURIComponent(name)).catch(() => ({ items: [] }));
+    const d = found.items.find((x) => x.name === name);
+    if (!d || d.kind !== "figure" || d.format === "pdf") return;
+    const img = hw.el("img", null, "figure thumb");
+    img.alt = "Preview of " + name;
+    img.src = "/api/ui/figure/" + d.id;
+    img.addEventListener("error", () => img.remove());
+    into.append(img);
   }
 
   function producer(p) {

@@ -189,6 +189,11 @@ class WebUiTest {
         // expected: models/trend_model.R line 53 writes this figure (ggsave); the hash is the JDK's SHA-256
         assertThat(script.getText()).isEqualTo("models/trend_model.R");
         assertThat(driver.getCurrentUrl()).endsWith("sha256=" + sha256(Files.readAllBytes(copy)));
+        WebElement thumb = waitFor(By.cssSelector("#whence-answer img.thumb"));
+        new WebDriverWait(driver, Duration.ofSeconds(10)).until(d -> ((Number) js("return arguments[0].naturalHeight", thumb)).intValue() > 0);
+        // expected: the PNG's own height, read by the JDK's ImageIO
+        assertThat(((Number) js("return arguments[0].naturalHeight", thumb)).intValue())
+                .isEqualTo(ImageIO.read(copy.toFile()).getHeight());
         shoot("8-whence");
 
         byte[] noise = new byte[4096];
