@@ -124,8 +124,27 @@ hw.views.dataset = async function (main, route) {
       v.drift ? v.drift.added.join(", ") : "", v.drift ? v.drift.removed.join(", ") : "", v.drift ? v.drift.retyped.join(", ") : ""])));
   }).catch((e) => history.append(hw.el("p", e.message, "notice")));
 
+  if (d.source) main.append(lastHarvest(d));
   main.append(editForm(d));
 };
+
+/** The latest harvest of the dataset's source, and what it could not read of this dataset. */
+function lastHarvest(d) {
+  const box = hw.section("Last harvest of " + d.source);
+  box.id = "last-harvest";
+  hw.get("/api/harvests?limit=50").then(async (list) => {
+    const h = list.find((x) => x.source === d.source);
+    if (!h) { box.append(hw.el("p", "No harvest of this source is recorded.", "quiet")); return; }
+    box.append(hw.el("p", (h.finished_at ? "Finished " + hw.when(h.finished_at) : "Running since " + hw.when(h.started_at)) + ", " + h.status + ": " +
+      hw.number(h.files_seen) + " files seen, " + hw.number(h.errors) + " could not be read."));
+    if (!h.errors) return;
+    const full = await hw.get("/api/harvests/" + h.id);
+    const mine = full.error_list.filter((e) => e.uri === d.uri || (d.partitions || []).some((p) => p.uri === e.uri));
+    box.append(mine.length ? hw.table(["File", "Kind", "Why"], mine.map((e) => [hw.el("span", e.uri, "mono"), e.kind, e.message]))
+      : hw.el("p", "None of them belongs to this dataset.", "quiet"));
+  }).catch((e) => box.append(hw.el("p", e.message, "notice")));
+  return box;
+}
 
 function figurePreview(d) {
   const box = hw.section("Preview");

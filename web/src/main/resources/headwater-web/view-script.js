@@ -43,7 +43,7 @@ hw.views.script = async function (main, route) {
       target(r), hw.el("span", r.function || "", "mono"), where(r), hw.el("span", r.expression || "", "mono"), r.resolved ? "yes" : "no", r.confidence.toFixed(2)])));
     return section;
   };
-  main.append(hw.h("div", "two", block("read", "Reads"), block("write", "Writes")));
+  main.append(block("read", "Reads"), block("write", "Writes"));
 
   const runs = await hw.get("/api/scripts/" + s.id + "/runs").catch(() => []);
   const runBox = hw.section("Runs (" + runs.length + ")");
