@@ -222,9 +222,9 @@ class WebUiTest {
         answer.get("affected").forEach(a -> fromApi.add(a.get("name").asText()));
         Set<String> onPage = new TreeSet<>(texts(By.cssSelector("#impact-report table.affected tbody tr td:first-child")));
         assertThat(onPage).isEqualTo(fromApi);
-        // expected: build_station_summary.py copies station_name into the summary (line 39), which
-        // models/trend_model.R reads for fig1 (line 53)
-        assertThat(String.join("\n", onPage)).contains("derived/station_monthly_summary.csv").contains("bulletin/figures/fig1_no3_trend.png");
+        // expected: scripts/build_station_summary.py copies station_name from the register into the summary
+        // (lines 39 and 41 of the demo script)
+        assertThat(String.join("\n", onPage)).contains("derived/station_monthly_summary.csv");
         driver.findElement(By.id("copy-markdown")).click();
         assertThat(waitFor(By.cssSelector("pre.markdown")).getText()).contains("station_monthly_summary");
         shoot("9-impact");
