@@ -22,6 +22,7 @@ hw.views.lineage = async function (main, route) {
   const title = hw.el("h1", "Lineage");
   const status = hw.el("p", "Loading\u2026", "quiet");
   status.setAttribute("role", "status");
+  status.id = "graph-status";
   const canvas = hw.el("div", null, "canvas");
   const picture = document.createElementNS("http://www.w3.org/2000/svg", "svg");
   picture.setAttribute("class", "graph");
@@ -179,7 +180,7 @@ hw.views.lineage = async function (main, route) {
       byId: new Map(nodes.map((n) => [n.id, n])) };
     placed = hwGraph.layout(graph);
     drawn = hwGraph.draw(picture, graph, placed, hw.kindSigns);
-    status.textContent = nodes.length + " datasets, " + v.edges.length + " links" + (state.columns ? ", " + columnEdges.length + " column links" : "") + ". Upstream is on the left.";
+    status.textContent = nodes.length + (nodes.length === 1 ? " dataset, " : " datasets, ") + v.edges.length + (v.edges.length === 1 ? " link" : " links") + (state.columns ? ", " + columnEdges.length + " column links" : "") + ". Upstream is on the left.";
     if (state.selected !== null) panel(state.selected);
     if (focusAfter !== null && drawn.get(focusAfter)) { drawn.get(focusAfter).focus(); focusAfter = null; }
   }

@@ -161,6 +161,13 @@ class WebUiTest {
         assertThat(driver.findElement(By.id("path-note")).getText()).startsWith("Path between stations/station_register.csv and bulletin/figures/fig1_no3_trend.png: 3 datasets.");
         shoot("5-lineage-path");
 
+        // filter by evidence: the demo has no captured runs (no connector ran), so no link is runtime evidence
+        driver.get(lineageAddress + "?evidence=runtime");
+        new WebDriverWait(driver, Duration.ofSeconds(10)).until(d -> d.findElement(By.id("graph-status")).getText().startsWith("1 dataset, 0 links"));
+        assertThat(driver.findElements(By.cssSelector("path.edge"))).isEmpty();
+        driver.get(lineageAddress);
+        waitFor(By.cssSelector(".node[aria-label='file stations/station_register.csv, expanded']"));
+
         node("bulletin/figures/fig1_no3_trend.png").click();
         waitFor(By.cssSelector("#node-panel a.open")).click();
         WebElement img = waitFor(By.cssSelector("#preview img.figure"));
