@@ -281,6 +281,22 @@ class WebUiTest {
             shoot(v[1]);
         }
         assertThat(driver.findElement(By.cssSelector("main")).getText()).contains("This address names no page");
+
+        // a phone-sized window: the pages reflow instead of scrolling sideways (common practice, no source)
+        var size = driver.manage().window().getSize();
+        driver.manage().window().setSize(new org.openqa.selenium.Dimension(480, 900));
+        try {
+            for (String address : List.of("", "#/dataset/" + idOf("derived/station_monthly_summary.csv"), "#/lineage/" + figure, "#/whence")) {
+                open(address);
+                new WebDriverWait(driver, Duration.ofSeconds(10)).until(d -> !d.findElements(By.cssSelector("main .panel")).isEmpty());
+                waitIdle();
+                assertThat(((Number) js("return document.documentElement.scrollWidth - window.innerWidth")).intValue())
+                        .as("sideways overflow at " + address).isLessThanOrEqualTo(0);
+            }
+            shoot("23-narrow-whence");
+        } finally {
+            driver.manage().window().setSize(size);
+        }
         noConsoleErrors("views");
     }
 
