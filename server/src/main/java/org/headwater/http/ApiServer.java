@@ -45,6 +45,7 @@ public final class ApiServer implements AutoCloseable {
         var runs = new RunRoutes(catalog);
         var whence = new WhenceRoutes(catalog);
         var freshness = new FreshnessRoutes(catalog);
+        var ui = new UiRoutes(catalog);
         long startedAt = System.currentTimeMillis();
         Javalin app = Javalin.create(config -> {
             config.jsonMapper(new JavalinJackson(mapper, false));
@@ -86,6 +87,8 @@ public final class ApiServer implements AutoCloseable {
             config.routes.get("/api/freshness/history", freshness::history);
             config.routes.get("/api/datasets/{id}/freshness", freshness::one);
             config.routes.put("/api/datasets/{id}/freshness-policy", freshness::putPolicy);
+            config.routes.get("/api/ui/overview", ui::overview);
+            config.routes.get("/api/ui/figure/{id}", ui::figure);
             config.routes.exception(ApiError.class, (e, ctx) ->
                     ctx.status(e.status()).json(new ApiError.Body(e.code(), e.getMessage())));
             config.routes.exception(Exception.class, (e, ctx) -> {
