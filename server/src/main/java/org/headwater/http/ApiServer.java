@@ -44,6 +44,7 @@ public final class ApiServer implements AutoCloseable {
         var harvests = new HarvestRoutes(catalog);
         var runs = new RunRoutes(catalog);
         var whence = new WhenceRoutes(catalog);
+        var lineage = new LineageRoutes(catalog);
         long startedAt = System.currentTimeMillis();
         Javalin app = Javalin.create(config -> {
             config.jsonMapper(new JavalinJackson(mapper, false));
@@ -80,6 +81,11 @@ public final class ApiServer implements AutoCloseable {
             config.routes.get("/api/whence", whence::whence);
             config.routes.get("/api/harvests", harvests::list);
             config.routes.get("/api/harvests/{id}", harvests::one);
+            config.routes.get("/api/datasets/{id}/upstream", lineage::upstream);
+            config.routes.get("/api/datasets/{id}/downstream", lineage::downstream);
+            config.routes.get("/api/impact", lineage::impact);
+            config.routes.put("/api/datasets/{id}/owners", lineage::putOwner);
+            config.routes.delete("/api/datasets/{id}/owners/{owner}", lineage::deleteOwner);
             config.routes.exception(ApiError.class, (e, ctx) ->
                     ctx.status(e.status()).json(new ApiError.Body(e.code(), e.getMessage())));
             config.routes.exception(Exception.class, (e, ctx) -> {
