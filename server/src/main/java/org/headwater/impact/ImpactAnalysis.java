@@ -37,9 +37,11 @@ import org.headwater.store.Views.OwnerView;
  *       computed from it, transitively, are affected; columns reached only through a filter, join or
  *       grouping are affected indirectly. The datasets holding affected columns are affected, and every
  *       script whose code moves an affected column (or the target) into another affected column reads
- *       it. A script that reads the target's dataset through an edge with no column flows at all may use
- *       the column: it and its output are listed as uncertain. A figure or view reached "as a whole" (a
- *       flow that names no target column) is affected as a whole.</li>
+ *       it. Python and R analysis does not trace filter and join columns, so a script that reads an
+ *       affected column's dataset without a traced flow from that column is a reader when its code names
+ *       the column (its output is affected, indirectly when the edge has other flows); when its code
+ *       cannot be read and the edge has no flows at all, it and its output are listed as uncertain. A
+ *       figure or view reached "as a whole" (a flow that names no target column) is affected as a whole.</li>
  *   <li>A change to a whole dataset (delete or move, late or stale) affects everything downstream of it
  *       by dataset edges, and every script on an edge between two of them (parallel edges included).</li>
  * </ul>
@@ -82,7 +84,8 @@ public final class ImpactAnalysis {
         Query edges = Query.everything().withMaxDepth(query.maxDepth()).withEvidence(query.evidence())
                 .withMinConfidence(query.minConfidence());
         Drafts drafts = new Drafts();
-        boolean cycle = target.isColumn() ? columns(target, change, edges, drafts) : datasets(target, change, edges, drafts);
+        boolean cycle = target.isColumn() ? columns(target, change, edges, drafts, new ScriptTexts(labels))
+                : datasets(target, change, edges, drafts);
         return drafts.finish(target, change, cycle);
     }
 
@@ -111,7 +114,7 @@ public final class ImpactAnalysis {
         return reach.startInCycle();
     }
 
-    private boolean columns(Target target, ChangeKind change, Query query, Drafts drafts) {
+    private boolean columns(Target target, ChangeKind change, Query query, Drafts drafts, ScriptTexts texts) {
         ColumnKey start = new ColumnKey(target.datasetId(), target.column());
         ColumnClosure closure = graph.downstreamColumns(start.datasetId(), start.column(), query);
         Map<ColumnKey, Integer> distance = new LinkedHashMap<>();
@@ -153,20 +156,54 @@ public final class ImpactAnalysis {
                         appendColumn(paths.get(key), hop));
             }
         }
-        // An edge out of the target's dataset with no column flows at all: its script may use the column.
-        for (Hop hop : graph.edgesOut(start.datasetId(), query)) {
-            if (graph.hasColumnFlows(hop.edgeId())) {
+        // Edges that carry no traced flow from an affected column: the script may still use it (a filter the
+        // analysis does not trace), which its code shows by naming the column.
+        for (Map.Entry<ColumnKey, Integer> from : new ArrayList<>(distance.entrySet())) {
+            ColumnKey key = from.getKey();
+            if (key.column() == null) {
                 continue;
             }
-            String why = Why.of(change, Relation.UNKNOWN_COLUMNS);
-            if (hop.scriptId() != null) {
-                drafts.script(hop.scriptId(), 1, false, true, why, List.of(hop));
-            }
-            if (hop.toDatasetId() != start.datasetId()) {
-                drafts.dataset(hop.toDatasetId(), null, 1, false, true, why, List.of(hop));
+            Set<Long> traced = new HashSet<>();
+            graph.columnEdgesOut(key.datasetId(), key.column(), query).forEach(h -> traced.add(h.edgeId()));
+            for (Hop hop : graph.edgesOut(key.datasetId(), query)) {
+                if (traced.contains(hop.edgeId()) || hop.scriptId() == null) {
+                    continue;
+                }
+                boolean noFlows = !graph.hasColumnFlows(hop.edgeId());
+                java.util.Optional<Boolean> named = texts.names(hop.scriptId(), key.column());
+                List<Hop> path = datasetPath(paths.get(key), hop);
+                int d = from.getValue() + 1;
+                boolean rows = indirect.contains(key);
+                if (named.orElse(false)) {
+                    drafts.script(hop.scriptId(), d, rows, false, Why.of(change, Relation.NAMED), path);
+                    if (hop.toDatasetId() != key.datasetId()) {
+                        drafts.dataset(hop.toDatasetId(), null, d, rows || !noFlows, false,
+                                Why.of(change, Relation.NAMED_OUTPUT), path);
+                    }
+                } else if (named.isEmpty() && noFlows) {
+                    String why = Why.of(change, Relation.UNKNOWN_COLUMNS);
+                    drafts.script(hop.scriptId(), d, rows, true, why, path);
+                    if (hop.toDatasetId() != key.datasetId()) {
+                        drafts.dataset(hop.toDatasetId(), null, d, rows, true, why, path);
+                    }
+                }
             }
         }
         return closure.flows().startInCycle() || closure.indirect().startInCycle();
+    }
+
+    /**
+     * A column path followed by one dataset hop, as dataset hops: the evidence chain of something reached
+     * through a script that names a column without a traced flow.
+     */
+    private static List<Hop> datasetPath(List<ColumnHop> columnPath, Hop last) {
+        List<Hop> hops = new ArrayList<>();
+        for (ColumnHop h : columnPath) {
+            hops.add(new Hop(h.edgeId(), h.from().datasetId(), h.to().datasetId(), h.scriptId(), h.runId(), h.evidence(),
+                    h.confidence()));
+        }
+        hops.add(last);
+        return hops;
     }
 
     private static List<Hop> append(List<Hop> path, Hop hop) {

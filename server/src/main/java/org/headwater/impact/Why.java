@@ -6,7 +6,7 @@ import java.util.Map;
 /** The sentence that says what a change does to each affected thing: a table, change kind by relation. */
 final class Why {
     /** How an affected thing relates to the changed target. */
-    enum Relation { COPY, COMPUTE, ROWS, READER, HOLDER, WHOLE, UNKNOWN_COLUMNS, MADE_FROM, DOWNSTREAM_READER }
+    enum Relation { COPY, COMPUTE, ROWS, READER, NAMED, NAMED_OUTPUT, HOLDER, WHOLE, UNKNOWN_COLUMNS, MADE_FROM, DOWNSTREAM_READER }
 
     private static final Map<ChangeKind, Map<Relation, String>> TABLE = new EnumMap<>(ChangeKind.class);
 
@@ -16,6 +16,8 @@ final class Why {
                 Relation.COMPUTE, "computed from the dropped column: can no longer be computed",
                 Relation.ROWS, "its rows are chosen, joined or grouped by the dropped column",
                 Relation.READER, "reads the dropped column: fails or changes meaning",
+                Relation.NAMED, "its code names the dropped column (a use such as a filter, not traced as a flow): fails or changes meaning",
+                Relation.NAMED_OUTPUT, "written by a script whose code names the dropped column: may change",
                 Relation.HOLDER, "holds columns made from the dropped column",
                 Relation.WHOLE, "made using the dropped column",
                 Relation.UNKNOWN_COLUMNS, "reads the dataset; which of its columns is not known");
@@ -24,6 +26,8 @@ final class Why {
                 Relation.COMPUTE, "computed from the renamed column, which its script names by the old name",
                 Relation.ROWS, "its rows are chosen, joined or grouped by the renamed column",
                 Relation.READER, "names the column by its old name: must be updated",
+                Relation.NAMED, "its code names the column by its old name: must be updated",
+                Relation.NAMED_OUTPUT, "written by a script whose code names the renamed column",
                 Relation.HOLDER, "holds columns made from the renamed column",
                 Relation.WHOLE, "made using the renamed column",
                 Relation.UNKNOWN_COLUMNS, "reads the dataset; which of its columns is not known");
@@ -32,6 +36,8 @@ final class Why {
                 Relation.COMPUTE, "computed from the column: may fail or change under the new type",
                 Relation.ROWS, "filtered, joined or grouped by the column: comparisons may change under the new type",
                 Relation.READER, "reads the column: must accept the new type",
+                Relation.NAMED, "its code names the column: must accept the new type",
+                Relation.NAMED_OUTPUT, "written by a script whose code names the retyped column: may change",
                 Relation.HOLDER, "holds columns made from the retyped column",
                 Relation.WHOLE, "made using the retyped column",
                 Relation.UNKNOWN_COLUMNS, "reads the dataset; which of its columns is not known");

@@ -40,6 +40,16 @@ public final class LabelReader {
         return names;
     }
 
+    /** The URI of each script, for reading its code. */
+    public Map<Long, String> scriptUris(Collection<Long> ids) {
+        Map<Long, String> uris = new HashMap<>();
+        if (!ids.isEmpty()) {
+            store.dsl().select(SCRIPT.ID, SCRIPT.URI).from(SCRIPT).where(SCRIPT.ID.in(ids))
+                    .forEach(r -> uris.put(r.value1(), r.value2()));
+        }
+        return uris;
+    }
+
     /** The id of the source with this name. */
     public Optional<Long> sourceId(String name) {
         return store.dsl().select(SOURCE.ID).from(SOURCE).where(SOURCE.NAME.eq(name)).fetchOptional(SOURCE.ID);
