@@ -84,6 +84,9 @@ public final class ImpactAnalysis {
         Query edges = Query.everything().withMaxDepth(query.maxDepth()).withEvidence(query.evidence())
                 .withMinConfidence(query.minConfidence());
         Drafts drafts = new Drafts();
+        if (target.isColumn()) {
+            drafts.startDataset = target.datasetId();
+        }
         boolean cycle = target.isColumn() ? columns(target, change, edges, drafts, new ScriptTexts(labels))
                 : datasets(target, change, edges, drafts);
         return drafts.finish(target, change, cycle);
@@ -99,7 +102,7 @@ public final class ImpactAnalysis {
         for (Reached r : reach.reached()) {
             distance.put(r.datasetId(), r.distance());
             paths.put(r.datasetId(), r.path());
-            drafts.dataset(r.datasetId(), null, r.distance(), false, false, Why.of(change, Relation.MADE_FROM), r.path());
+            drafts.dataset(r.datasetId(), r.distance(), false, false, Why.of(change, Relation.MADE_FROM), r.path());
         }
         for (Map.Entry<Long, Integer> from : new ArrayList<>(distance.entrySet())) {
             for (Hop hop : graph.edgesOut(from.getKey(), query)) {
@@ -114,113 +117,111 @@ public final class ImpactAnalysis {
         return reach.startInCycle();
     }
 
+    /** How a column was reached: hops from the target, whether only through filters or joins, and the path. */
+    private record Reach(int distance, boolean indirect, List<Object> path) {
+        boolean beats(Reach other) {
+            return other == null || distance < other.distance || (distance == other.distance && other.indirect && !indirect);
+        }
+    }
+
     private boolean columns(Target target, ChangeKind change, Query query, Drafts drafts, ScriptTexts texts) {
         ColumnKey start = new ColumnKey(target.datasetId(), target.column());
-        ColumnClosure closure = graph.downstreamColumns(start.datasetId(), start.column(), query);
-        Map<ColumnKey, Integer> distance = new LinkedHashMap<>();
-        Map<ColumnKey, List<ColumnHop>> paths = new HashMap<>();
-        Set<ColumnKey> indirect = new HashSet<>();
-        distance.put(start, 0);
-        paths.put(start, List.of());
-        for (boolean isIndirect : new boolean[] {false, true}) {
-            for (ReachedColumn r : (isIndirect ? closure.indirect() : closure.flows()).reached()) {
-                ColumnKey key = r.column();
-                distance.put(key, r.distance());
-                paths.put(key, r.path());
-                if (isIndirect) {
-                    indirect.add(key);
-                }
-                if (key.column() == null) {
-                    drafts.dataset(key.datasetId(), null, r.distance(), isIndirect, false,
-                            Why.of(change, isIndirect ? Relation.ROWS : Relation.WHOLE), r.path());
-                    continue;
-                }
-                Relation relation = isIndirect ? Relation.ROWS
-                        : r.path().get(r.path().size() - 1).role() == ColumnRole.DIRECT ? Relation.COPY : Relation.COMPUTE;
-                drafts.column(key, r.distance(), isIndirect, Why.of(change, relation), r.path());
-                drafts.dataset(key.datasetId(), null, r.distance(), isIndirect, false, Why.of(change, Relation.HOLDER),
-                        r.path());
-            }
-        }
-        for (Map.Entry<ColumnKey, Integer> from : distance.entrySet()) {
-            ColumnKey key = from.getKey();
-            if (key.column() == null) {
-                continue;
-            }
-            for (ColumnHop hop : graph.columnEdgesOut(key.datasetId(), key.column(), query)) {
-                if (hop.scriptId() == null || !distance.containsKey(hop.to())) {
-                    continue;
-                }
-                boolean rows = indirect.contains(key) || hop.role() == ColumnRole.INFLUENCING;
-                drafts.script(hop.scriptId(), from.getValue() + 1, rows, false, Why.of(change, Relation.READER),
-                        appendColumn(paths.get(key), hop));
-            }
-        }
-        // Edges that carry no traced flow from an affected column: the script may still use it (a filter the
-        // analysis does not trace), which its code shows by naming the column.
-        for (Map.Entry<ColumnKey, Integer> from : new ArrayList<>(distance.entrySet())) {
-            ColumnKey key = from.getKey();
-            if (key.column() == null) {
-                continue;
-            }
+        Map<ColumnKey, Reach> reached = new LinkedHashMap<>();
+        java.util.ArrayDeque<ColumnKey> fresh = new java.util.ArrayDeque<>();
+        reached.put(start, new Reach(0, false, List.of()));
+        fresh.add(start);
+        boolean cycle = closure(start, reached.get(start), change, query, drafts, reached, fresh);
+        while (!fresh.isEmpty()) {
+            ColumnKey key = fresh.poll();
+            Reach at = reached.get(key);
             Set<Long> traced = new HashSet<>();
-            graph.columnEdgesOut(key.datasetId(), key.column(), query).forEach(h -> traced.add(h.edgeId()));
+            for (ColumnHop hop : graph.columnEdgesOut(key.datasetId(), key.column(), query)) {
+                traced.add(hop.edgeId());
+                if (hop.scriptId() != null && reached.containsKey(hop.to())) {
+                    boolean rows = at.indirect() || hop.role() == ColumnRole.INFLUENCING;
+                    drafts.script(hop.scriptId(), at.distance() + 1, rows, false, Why.of(change, Relation.READER),
+                            append(at.path(), hop));
+                }
+            }
+            // Edges with no traced flow from this column: the script may still use it (a filter the analysis
+            // does not trace), which its code shows by naming the column.
             for (Hop hop : graph.edgesOut(key.datasetId(), query)) {
                 if (traced.contains(hop.edgeId()) || hop.scriptId() == null) {
                     continue;
                 }
                 boolean noFlows = !graph.hasColumnFlows(hop.edgeId());
                 java.util.Optional<Boolean> named = texts.names(hop.scriptId(), key.column());
-                List<Hop> path = datasetPath(paths.get(key), hop);
-                int d = from.getValue() + 1;
-                boolean rows = indirect.contains(key);
+                List<Object> path = append(at.path(), hop);
+                int d = at.distance() + 1;
                 if (named.orElse(false)) {
-                    drafts.script(hop.scriptId(), d, rows, false, Why.of(change, Relation.NAMED), path);
-                    if (hop.toDatasetId() != key.datasetId()) {
-                        drafts.dataset(hop.toDatasetId(), null, d, rows || !noFlows, false,
-                                Why.of(change, Relation.NAMED_OUTPUT), path);
+                    drafts.script(hop.scriptId(), d, at.indirect(), false, Why.of(change, Relation.NAMED), path);
+                    drafts.dataset(hop.toDatasetId(), d, at.indirect() || !noFlows, false,
+                            Why.of(change, Relation.NAMED_OUTPUT), path);
+                    // What the script writes may depend on the column as a filter would: indirectly.
+                    for (String written : graph.columnsWrittenBy(hop.edgeId())) {
+                        ColumnKey out = new ColumnKey(hop.toDatasetId(), written);
+                        Reach via = new Reach(d, true, path);
+                        if (via.beats(reached.get(out))) {
+                            record(out, via, change, drafts, reached, fresh);
+                            cycle |= closure(out, via, change, query, drafts, reached, fresh) && out.equals(start);
+                        }
                     }
                 } else if (named.isEmpty() && noFlows) {
                     String why = Why.of(change, Relation.UNKNOWN_COLUMNS);
-                    drafts.script(hop.scriptId(), d, rows, true, why, path);
-                    if (hop.toDatasetId() != key.datasetId()) {
-                        drafts.dataset(hop.toDatasetId(), null, d, rows, true, why, path);
-                    }
+                    drafts.script(hop.scriptId(), d, at.indirect(), true, why, path);
+                    drafts.dataset(hop.toDatasetId(), d, at.indirect(), true, why, path);
+                }
+            }
+        }
+        return cycle;
+    }
+
+    /** Records everything the column walk from {@code from} reaches; true when it comes back to {@code from}. */
+    private boolean closure(ColumnKey from, Reach at, ChangeKind change, Query query, Drafts drafts,
+            Map<ColumnKey, Reach> reached, java.util.ArrayDeque<ColumnKey> fresh) {
+        ColumnClosure closure = graph.downstreamColumns(from.datasetId(), from.column(), query);
+        for (boolean isIndirect : new boolean[] {false, true}) {
+            for (ReachedColumn r : (isIndirect ? closure.indirect() : closure.flows()).reached()) {
+                List<Object> path = new ArrayList<>(at.path());
+                path.addAll(r.path());
+                Reach via = new Reach(at.distance() + r.distance(), at.indirect() || isIndirect, path);
+                if (via.beats(reached.get(r.column()))) {
+                    record(r.column(), via, change, drafts, reached, fresh);
                 }
             }
         }
         return closure.flows().startInCycle() || closure.indirect().startInCycle();
     }
 
-    /**
-     * A column path followed by one dataset hop, as dataset hops: the evidence chain of something reached
-     * through a script that names a column without a traced flow.
-     */
-    private static List<Hop> datasetPath(List<ColumnHop> columnPath, Hop last) {
-        List<Hop> hops = new ArrayList<>();
-        for (ColumnHop h : columnPath) {
-            hops.add(new Hop(h.edgeId(), h.from().datasetId(), h.to().datasetId(), h.scriptId(), h.runId(), h.evidence(),
-                    h.confidence()));
+    private void record(ColumnKey key, Reach via, ChangeKind change, Drafts drafts, Map<ColumnKey, Reach> reached,
+            java.util.ArrayDeque<ColumnKey> fresh) {
+        if (key.column() == null) {
+            // A flow that names no column of its target (a figure drawn from it) affects the target as a whole.
+            drafts.dataset(key.datasetId(), via.distance(), via.indirect(), false,
+                    Why.of(change, via.indirect() ? Relation.ROWS : Relation.WHOLE), via.path());
+            return;
         }
-        hops.add(last);
-        return hops;
+        reached.put(key, via);
+        fresh.add(key);
+        Object last = via.path().isEmpty() ? null : via.path().get(via.path().size() - 1);
+        Relation relation = via.indirect() ? Relation.ROWS
+                : last instanceof ColumnHop h && h.role() == ColumnRole.DIRECT ? Relation.COPY : Relation.COMPUTE;
+        drafts.column(key, via.distance(), via.indirect(), Why.of(change, relation), via.path());
+        drafts.dataset(key.datasetId(), via.distance(), via.indirect(), false, Why.of(change, Relation.HOLDER), via.path());
     }
 
-    private static List<Hop> append(List<Hop> path, Hop hop) {
-        List<Hop> longer = new ArrayList<>(path);
+    private static List<Object> append(List<?> path, Object hop) {
+        List<Object> longer = new ArrayList<>(path);
         longer.add(hop);
         return longer;
     }
 
-    private static List<ColumnHop> appendColumn(List<ColumnHop> path, ColumnHop hop) {
-        List<ColumnHop> longer = new ArrayList<>(path);
-        longer.add(hop);
-        return longer;
-    }
-
-    /** One affected thing before names and owners are looked up; the nearest, most direct reach wins. */
+    /**
+     * One affected thing before names and owners are looked up; the nearest, most direct reach wins. The
+     * path holds {@link Hop}s and {@link ColumnHop}s: a column path may go on through a dataset edge.
+     */
     private record Draft(String key, boolean script, long id, String column, int distance, boolean indirect,
-            boolean uncertain, String why, List<Hop> hops, List<ColumnHop> columnHops) {
+            boolean uncertain, String why, List<?> path) {
         /** Whether this reach is better than {@code other}: nearer, else direct rather than indirect or uncertain. */
         boolean beats(Draft other) {
             if (distance != other.distance) {
@@ -235,32 +236,25 @@ public final class ImpactAnalysis {
     /** The drafts of one report, then the report. */
     private final class Drafts {
         private final Map<String, Draft> byKey = new LinkedHashMap<>();
-        /** Whether every reach of a dataset so far was indirect (a dataset is indirect only if all its columns are). */
+        /** Whether every reach of a dataset so far was indirect (a dataset is indirect only if all its reaches are). */
         private final Map<Long, Boolean> allIndirect = new HashMap<>();
+        private long startDataset = -1;
 
-        void dataset(long id, String column, int distance, boolean indirect, boolean uncertain, String why,
-                Object path) {
+        void dataset(long id, int distance, boolean indirect, boolean uncertain, String why, List<?> path) {
+            if (id == startDataset) {
+                return; // the target's own dataset is not "affected" by a change to one of its columns
+            }
             allIndirect.merge(id, indirect, Boolean::logicalAnd);
-            offer(new Draft("d" + id, false, id, column, distance, indirect, uncertain, why, hops(path), columnHops(path)));
+            offer(new Draft("d" + id, false, id, null, distance, indirect, uncertain, why, path));
         }
 
-        void column(ColumnKey key, int distance, boolean indirect, String why, List<ColumnHop> path) {
+        void column(ColumnKey key, int distance, boolean indirect, String why, List<?> path) {
             offer(new Draft("c" + key.datasetId() + "." + key.column(), false, key.datasetId(), key.column(), distance,
-                    indirect, false, why, null, path));
+                    indirect, false, why, path));
         }
 
-        void script(long id, int distance, boolean indirect, boolean uncertain, String why, Object path) {
-            offer(new Draft("s" + id, true, id, null, distance, indirect, uncertain, why, hops(path), columnHops(path)));
-        }
-
-        @SuppressWarnings("unchecked")
-        private List<Hop> hops(Object path) {
-            return path instanceof List<?> l && !l.isEmpty() && l.get(0) instanceof Hop ? (List<Hop>) l : null;
-        }
-
-        @SuppressWarnings("unchecked")
-        private List<ColumnHop> columnHops(Object path) {
-            return path instanceof List<?> l && !l.isEmpty() && l.get(0) instanceof ColumnHop ? (List<ColumnHop>) l : null;
+        void script(long id, int distance, boolean indirect, boolean uncertain, String why, List<?> path) {
+            offer(new Draft("s" + id, true, id, null, distance, indirect, uncertain, why, path));
         }
 
         private void offer(Draft draft) {
@@ -276,17 +270,14 @@ public final class ImpactAnalysis {
             datasetIds.add(target.datasetId());
             for (Draft d : byKey.values()) {
                 (d.script() ? scriptIds : datasetIds).add(d.id());
-                if (d.hops() != null) {
-                    for (Hop h : d.hops()) {
+                for (Object step : d.path()) {
+                    if (step instanceof Hop h) {
                         datasetIds.add(h.fromDatasetId());
                         datasetIds.add(h.toDatasetId());
                         if (h.scriptId() != null) {
                             scriptIds.add(h.scriptId());
                         }
-                    }
-                }
-                if (d.columnHops() != null) {
-                    for (ColumnHop h : d.columnHops()) {
+                    } else if (step instanceof ColumnHop h) {
                         datasetIds.add(h.from().datasetId());
                         datasetIds.add(h.to().datasetId());
                         if (h.scriptId() != null) {
@@ -328,8 +319,8 @@ public final class ImpactAnalysis {
                                     a.inherited(), false)).toList()
                             : suggested.computeIfAbsent(d.id(), id -> owners.suggestedFor(id, null));
                 }
-                List<Step> path = d.hops() != null ? names.steps(d.hops())
-                        : d.columnHops() != null ? names.columnSteps(d.columnHops()) : List.of();
+                List<Step> path = d.path().stream()
+                        .map(step -> step instanceof Hop h ? names.step(h) : names.step((ColumnHop) step)).toList();
                 affected.add(new Affected(name, kind, d.id(), d.distance(), indirect, d.uncertain(), d.why(), who, path));
             }
             affected.sort(Comparator.comparingInt(Affected::distance)

@@ -185,6 +185,26 @@ public final class LineageGraph implements ChangeListener {
         });
     }
 
+    /** The columns an edge's own flows write into its target (not those spread from influencing flows). */
+    public List<String> columnsWrittenBy(long edgeId) {
+        return read(g -> {
+            int slot = g.edges.slot(edgeId);
+            List<String> written = new ArrayList<>();
+            if (slot < 0) {
+                return written;
+            }
+            int first = g.edges.firstColumnEdge(slot);
+            for (int c = first; c < first + g.edges.columnEdgeCount(slot); c++) {
+                String column = g.columnEdges.isLive(c) && g.columnEdges.owner(c) == slot
+                        ? g.columns.column(g.columnEdges.to(c)) : null;
+                if (column != null && !written.contains(column)) {
+                    written.add(column);
+                }
+            }
+            return written;
+        });
+    }
+
     /** Whether some column edge starts or ends at this column of this dataset. */
     public boolean hasColumn(long datasetId, String column) {
         return read(g -> {
