@@ -75,6 +75,9 @@ public final class OwnerReader {
                 .orderBy(OWNER.NAME)
                 .forEach(r -> byDataset.computeIfAbsent(r.value1(), k -> new ArrayList<>())
                         .add(new Assigned(r.value1(), r.value2(), r.value3(), r.value4(), r.value5(), r.value6())));
+        // Sorted here, not by the database: H2 and PostgreSQL collate names differently.
+        byDataset.values().forEach(list -> list.sort(java.util.Comparator.comparing(Assigned::owner,
+                String.CASE_INSENSITIVE_ORDER).thenComparing(Assigned::owner)));
         return byDataset;
     }
 
