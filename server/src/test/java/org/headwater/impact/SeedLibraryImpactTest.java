@@ -188,7 +188,7 @@ class SeedLibraryImpactTest {
                 "2 column work/season.csv.variety_name indirect [trial-analysts]",
                 "2 script scripts/season.py [Wren Maddox?]",
                 "3 dataset work/running_log.csv [Wren Maddox?]",
-                "3 figure figures/season_rates.png [Tamsin Reed, newsletter]",
+                "3 figure figures/season_rates.png [newsletter, Tamsin Reed]",
                 "3 column work/running_log.csv.mean_rate [Wren Maddox?]",
                 "3 column work/running_log.csv.variety_name indirect [Wren Maddox?]",
                 "3 script scripts/plot_rates.py [Ivo Marsh?, Wren Maddox?]",
@@ -212,7 +212,7 @@ class SeedLibraryImpactTest {
                 "2 dataset work/season.csv [trial-analysts]",
                 "2 script scripts/season.py [Wren Maddox?]",
                 "3 dataset work/running_log.csv [Wren Maddox?]",
-                "3 figure figures/season_rates.png [Tamsin Reed, newsletter]",
+                "3 figure figures/season_rates.png [newsletter, Tamsin Reed]",
                 "3 script scripts/plot_rates.py [Ivo Marsh?, Wren Maddox?]",
                 "3 script scripts/running_log.py [Wren Maddox?]");
         assertThat(report.title()).isEqualTo("Impact of work/trays_enriched.csv being late or stale");
