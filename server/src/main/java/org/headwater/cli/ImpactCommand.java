@@ -53,7 +53,7 @@ final class ImpactCommand implements Callable<Integer> {
             try {
                 Target target = new Targets(open.reader(), owners, open.lineage()).resolve(key);
                 ChangeKind kind = change != null ? ChangeKind.of(change)
-                        : target.isColumn() ? ChangeKind.DROP : ChangeKind.DELETE;
+                        : target.namesColumn() ? ChangeKind.DROP : ChangeKind.DELETE;
                 report = new ImpactAnalysis(open.lineage(), new LabelReader(open.store()), owners).report(target, kind);
             } catch (TargetException | IllegalArgumentException e) {
                 throw new Problems.UsageProblem(e.getMessage());

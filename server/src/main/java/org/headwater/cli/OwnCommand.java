@@ -57,7 +57,7 @@ final class OwnCommand implements Callable<Integer> {
             } catch (TargetException e) {
                 throw new Problems.UsageProblem(e.getMessage());
             }
-            if (target.isColumn()) {
+            if (target.namesColumn()) {
                 throw new Problems.UsageProblem("owners belong to datasets; name " + target.dataset() + " without a column");
             }
             DatasetView dataset = open.reader().dataset(target.datasetId(), null).orElseThrow();

@@ -73,7 +73,7 @@ final class LineageRoutes {
         ImpactReport report;
         try {
             String change = Params.optional(ctx, "change");
-            ChangeKind kind = change != null ? ChangeKind.of(change) : target.isColumn() ? ChangeKind.DROP : ChangeKind.DELETE;
+            ChangeKind kind = change != null ? ChangeKind.of(change) : target.namesColumn() ? ChangeKind.DROP : ChangeKind.DELETE;
             report = new ImpactAnalysis(open.lineage(), new LabelReader(open.store()), new OwnerReader(open.store()))
                     .report(target, kind);
         } catch (IllegalArgumentException e) {

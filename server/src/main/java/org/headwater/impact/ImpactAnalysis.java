@@ -74,20 +74,20 @@ public final class ImpactAnalysis {
      * @throws IllegalArgumentException when a column change names no column, or a dataset change names one
      */
     public ImpactReport report(Target target, ChangeKind change, Query query) {
-        if (change.aboutColumn() && !target.isColumn()) {
+        if (change.aboutColumn() && !target.namesColumn()) {
             throw new IllegalArgumentException(change.word() + " is a change to a column; name it as dataset.column");
         }
-        if (!change.aboutColumn() && target.isColumn()) {
+        if (!change.aboutColumn() && target.namesColumn()) {
             throw new IllegalArgumentException(change.word() + " is a change to a whole dataset; name the dataset"
                     + " without a column");
         }
         Query edges = Query.everything().withMaxDepth(query.maxDepth()).withEvidence(query.evidence())
                 .withMinConfidence(query.minConfidence());
         Drafts drafts = new Drafts();
-        if (target.isColumn()) {
+        if (target.namesColumn()) {
             drafts.startDataset = target.datasetId();
         }
-        boolean cycle = target.isColumn() ? columns(target, change, edges, drafts, new ScriptTexts(labels))
+        boolean cycle = target.namesColumn() ? columns(target, change, edges, drafts, new ScriptTexts(labels))
                 : datasets(target, change, edges, drafts);
         return drafts.finish(target, change, cycle);
     }

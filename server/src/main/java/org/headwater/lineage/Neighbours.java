@@ -31,7 +31,7 @@ public record Neighbours(Target target, String direction, int count, boolean sta
     /** Walks {@code graph} (the live one, or one loaded as of an instant) from {@code target}. */
     public static Neighbours of(LineageGraph graph, LabelReader labels, Target target, boolean upstream, Query query) {
         String direction = upstream ? "upstream" : "downstream";
-        if (!target.isColumn()) {
+        if (!target.namesColumn()) {
             DatasetReach reach = upstream ? graph.upstream(target.datasetId(), query)
                     : graph.downstream(target.datasetId(), query);
             List<Reached> all = reach.reached();

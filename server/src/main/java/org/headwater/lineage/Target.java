@@ -14,7 +14,7 @@ public record Target(long datasetId, String dataset, String column, String parti
         return column == null ? dataset : dataset + "." + column;
     }
 
-    public boolean isColumn() {
+    public boolean namesColumn() {
         return column != null;
     }
 }

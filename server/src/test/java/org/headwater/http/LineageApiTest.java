@@ -86,6 +86,8 @@ class LineageApiTest {
         Answer up = get("/api/datasets/" + id("work/season.csv") + "/upstream?column=mean_rate");
         // reference: season.py copies rates.mean_rate, which rates.py computes from seeds_sprouted and
         // seeds_sown, which enrich.py copies from trays_all, which combine_trays.py copies from the weeks.
+        assertThat(up.body().get("target").get("dataset").asText()).isEqualTo("work/season.csv");
+        assertThat(up.body().get("target").get("column").asText()).isEqualTo("mean_rate");
         assertThat(up.body().get("results")).extracting(r -> r.get("distance").asInt() + " " + r.get("name").asText() + "."
                 + r.get("column").asText()).containsExactlyInAnyOrder(
                 "1 work/rates.csv.mean_rate",
