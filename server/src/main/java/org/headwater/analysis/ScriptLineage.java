@@ -109,9 +109,8 @@ public final class ScriptLineage {
         out.add(new Observation.ScriptReferencesSeen(script.uri(), script.contentHash(), references, analysis.warnings()));
         for (Map.Entry<String, Double> w : writes.entrySet()) {
             for (Map.Entry<String, Double> r : reads.entrySet()) {
-                if (r.getKey().equals(w.getKey())) {
-                    continue;
-                }
+                // A script that reads a file and rewrites it (a running log) is a cycle: its output depends
+                // on the output's previous content, and impact and staleness need that self-edge.
                 List<Observation.ColumnFlow> flows = columnFlows(analysis, uriOfPattern, r.getKey(), w.getKey());
                 out.add(new EdgeSeen(r.getKey(), w.getKey(), script.uri(), script.contentHash(), null, Evidence.STATIC,
                         Math.min(r.getValue(), w.getValue()), flows));

@@ -10,6 +10,7 @@ import picocli.CommandLine.Command;
                 ReindexCommand.class, LineageCommand.class, ReadsCommand.class, WhenceCommand.class, SniffCommand.class,
                 ExportCommand.class,
                 CheckCommand.class,
+                UpstreamCommand.class, DownstreamCommand.class, ImpactCommand.class, OwnCommand.class,
                 DemoCommand.class, CommandLine.HelpCommand.class})
 public final class Main implements Runnable {
 

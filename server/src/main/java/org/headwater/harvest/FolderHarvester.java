@@ -136,6 +136,7 @@ public final class FolderHarvester {
             run.assembleSets();
             run.removeVanished();
             run.analyseScripts(name);
+            run.applyOwnersFile();
             status = run.errors == 0 ? HarvestJournal.OK : HarvestJournal.WITH_ERRORS;
         } catch (IOException | RuntimeException e) {
             journal.error(harvestId, root.toUri().toString(), "harvest_failed", String.valueOf(e.getMessage()));
@@ -411,6 +412,23 @@ public final class FolderHarvester {
             } catch (IOException | RuntimeException e) {
                 error(root.toUri().toString(), "analysis_failed", "Script analysis failed: " + e);
             }
+        }
+
+        /** The owners file's rules, turned into ownerships of this source's datasets (after analysis: views too). */
+        void applyOwnersFile() {
+            String fileUri = root.resolve(org.headwater.owners.OwnersFile.NAME).toUri().toString();
+            org.headwater.owners.OwnersFile file;
+            try {
+                file = org.headwater.owners.OwnersFile.read(root);
+            } catch (IOException e) {
+                error(fileUri, "owners_file", "Cannot read the owners file: " + e.getMessage());
+                return;
+            }
+            file.problems().forEach(p -> error(fileUri, "owners_file", p.toString()));
+            var owners = reader.owners();
+            batch.addAll(org.headwater.owners.FileOwners.observe(file, owners.presentOfSource(sourceId),
+                    owners.currentOfSource(sourceId)));
+            flush();
         }
 
         HarvestJournal.Counts counts() {

@@ -19,6 +19,11 @@ public final class ApiError extends RuntimeException {
         return new ApiError(404, "not_found", message);
     }
 
+    /** The request contradicts a rule the catalog keeps (an owner given by the owners file, removed by hand). */
+    public static ApiError conflict(String message) {
+        return new ApiError(409, "conflict", message);
+    }
+
     public static ApiError unavailable(String message) {
         return new ApiError(503, "unavailable", message);
     }

@@ -46,6 +46,7 @@ public final class ApiServer implements AutoCloseable {
         var whence = new WhenceRoutes(catalog);
         var freshness = new FreshnessRoutes(catalog);
         var ui = new UiRoutes(catalog);
+        var lineage = new LineageRoutes(catalog);
         long startedAt = System.currentTimeMillis();
         Javalin app = Javalin.create(config -> {
             config.jsonMapper(new JavalinJackson(mapper, false));
@@ -89,6 +90,11 @@ public final class ApiServer implements AutoCloseable {
             config.routes.put("/api/datasets/{id}/freshness-policy", freshness::putPolicy);
             config.routes.get("/api/ui/overview", ui::overview);
             config.routes.get("/api/ui/figure/{id}", ui::figure);
+            config.routes.get("/api/datasets/{id}/upstream", lineage::upstream);
+            config.routes.get("/api/datasets/{id}/downstream", lineage::downstream);
+            config.routes.get("/api/impact", lineage::impact);
+            config.routes.put("/api/datasets/{id}/owners", lineage::putOwner);
+            config.routes.delete("/api/datasets/{id}/owners/{owner}", lineage::deleteOwner);
             config.routes.exception(ApiError.class, (e, ctx) ->
                     ctx.status(e.status()).json(new ApiError.Body(e.code(), e.getMessage())));
             config.routes.exception(Exception.class, (e, ctx) -> {

@@ -205,13 +205,29 @@ public sealed interface Observation {
         }
     }
 
-    /** Someone owns a dataset, for a stated reason (a rule, a git history, a person's word). */
-    record OwnerAssigned(String uri, String owner, String ownerKind, String reason) implements Observation {
+    /**
+     * Someone owns a dataset, for a stated reason (a rule, a git history, a person's word).
+     *
+     * @param origin {@code file} (the owners file), {@code manual} (a person) or {@code declared}
+     * @param inherited whether the owner was given to a folder above the dataset rather than to it
+     */
+    record OwnerAssigned(String uri, String owner, String ownerKind, String reason, String origin, boolean inherited)
+            implements Observation {
+        public static final String FILE = "file";
+        public static final String MANUAL = "manual";
+        public static final String DECLARED = "declared";
+
         public OwnerAssigned {
             Objects.requireNonNull(uri, "uri");
             Objects.requireNonNull(owner, "owner");
             Objects.requireNonNull(ownerKind, "ownerKind");
             Objects.requireNonNull(reason, "reason");
+            Objects.requireNonNull(origin, "origin");
+        }
+
+        /** An ownership declared by some source, given to the dataset itself. */
+        public OwnerAssigned(String uri, String owner, String ownerKind, String reason) {
+            this(uri, owner, ownerKind, reason, DECLARED, false);
         }
     }
 

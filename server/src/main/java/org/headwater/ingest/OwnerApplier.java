@@ -18,7 +18,8 @@ final class OwnerApplier {
                     .returningResult(OWNER.ID).fetchOne(OWNER.ID);
         }
         DatasetOwnerRecord current = current(tx, dataset, owner);
-        if (current != null && current.getReason().equals(assigned.reason())) {
+        if (current != null && current.getReason().equals(assigned.reason())
+                && current.getOrigin().equals(assigned.origin()) && current.getInherited() == assigned.inherited()) {
             return;
         }
         if (current != null) {
@@ -29,6 +30,8 @@ final class OwnerApplier {
                 .set(DATASET_OWNER.DATASET_ID, dataset)
                 .set(DATASET_OWNER.OWNER_ID, owner)
                 .set(DATASET_OWNER.REASON, assigned.reason())
+                .set(DATASET_OWNER.ORIGIN, assigned.origin())
+                .set(DATASET_OWNER.INHERITED, assigned.inherited())
                 .set(DATASET_OWNER.VALID_FROM, tx.now)
                 .execute();
         tx.changed(Change.DATASET, dataset, "owner", assigned.owner());

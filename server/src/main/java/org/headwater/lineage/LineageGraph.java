@@ -117,6 +117,102 @@ public final class LineageGraph implements ChangeListener {
         });
     }
 
+    /**
+     * Every edge that leaves a dataset and that {@code query}'s edge filters let a walk cross, in store-id
+     * order. Unlike a walk, which keeps one edge per dataset reached, this lists parallel edges too (two
+     * scripts writing one output from one input), which an impact report needs to name every script.
+     */
+    public List<Hop> edgesOut(long datasetId, Query query) {
+        Filter filter = Filter.of(query);
+        return read(g -> {
+            int node = g.nodes.node(datasetId);
+            List<Hop> hops = new ArrayList<>();
+            if (node < 0) {
+                return hops;
+            }
+            int[] slots = g.out.array(node);
+            for (int i = g.out.offset(node), end = i + g.out.size(node); i < end; i++) {
+                int slot = slots[i];
+                if (filter.followsEdge(g.edges, slot)) {
+                    long script = g.edges.script(slot);
+                    hops.add(new Hop(g.edges.id(slot), datasetId, g.nodes.id(g.edges.to(slot)),
+                            script == EdgeTable.NO_SCRIPT ? null : script, g.edges.run(slot), g.edges.evidence(slot),
+                            roundedConfidence(g.edges.confidence(slot))));
+                }
+            }
+            return hops;
+        });
+    }
+
+    /** Every column edge that leaves a column and that {@code query}'s edge filters let a walk cross. */
+    public List<ColumnHop> columnEdgesOut(long datasetId, String column, Query query) {
+        Filter filter = Filter.of(query);
+        return read(g -> {
+            int dataset = g.nodes.node(datasetId);
+            int node = dataset < 0 ? -1 : g.columns.node(dataset, column);
+            List<ColumnHop> hops = new ArrayList<>();
+            if (node < 0) {
+                return hops;
+            }
+            ColumnKey from = new ColumnKey(datasetId, column);
+            int[] slots = g.columnOut.array(node);
+            for (int i = g.columnOut.offset(node), end = i + g.columnOut.size(node); i < end; i++) {
+                int slot = slots[i];
+                int edge = g.columnEdges.owner(slot);
+                if (filter.followsEdge(g.edges, edge)) {
+                    int to = g.columnEdges.to(slot);
+                    long script = g.edges.script(edge);
+                    hops.add(new ColumnHop(g.edges.id(edge), from,
+                            new ColumnKey(g.nodes.id(g.columns.dataset(to)), g.columns.column(to)),
+                            g.columnEdges.role(slot), script == EdgeTable.NO_SCRIPT ? null : script,
+                            g.edges.run(edge), g.edges.evidence(edge), roundedConfidence(g.edges.confidence(edge))));
+                }
+            }
+            return hops;
+        });
+    }
+
+    private static double roundedConfidence(float stored) {
+        double rounded = Math.rint(stored * 10_000.0) / 10_000.0;
+        return (float) rounded == stored ? rounded : Double.parseDouble(Float.toString(stored));
+    }
+
+    /** Whether the edge with this store id is in the graph and carries column flows. */
+    public boolean hasColumnFlows(long edgeId) {
+        return read(g -> {
+            int slot = g.edges.slot(edgeId);
+            return slot >= 0 && g.edges.columnEdgeCount(slot) > 0;
+        });
+    }
+
+    /** The columns an edge's own flows write into its target (not those spread from influencing flows). */
+    public List<String> columnsWrittenBy(long edgeId) {
+        return read(g -> {
+            int slot = g.edges.slot(edgeId);
+            List<String> written = new ArrayList<>();
+            if (slot < 0) {
+                return written;
+            }
+            int first = g.edges.firstColumnEdge(slot);
+            for (int c = first; c < first + g.edges.columnEdgeCount(slot); c++) {
+                String column = g.columnEdges.isLive(c) && g.columnEdges.owner(c) == slot
+                        ? g.columns.column(g.columnEdges.to(c)) : null;
+                if (column != null && !written.contains(column)) {
+                    written.add(column);
+                }
+            }
+            return written;
+        });
+    }
+
+    /** Whether some column edge starts or ends at this column of this dataset. */
+    public boolean hasColumn(long datasetId, String column) {
+        return read(g -> {
+            int dataset = g.nodes.node(datasetId);
+            return dataset >= 0 && g.columns.node(dataset, column) >= 0;
+        });
+    }
+
     /** Datasets the graph knows (every dataset identity, with or without edges). */
     public int datasetCount() {
         return read(g -> g.nodes.count());

@@ -63,6 +63,11 @@ public final class CatalogReader {
         this.db = store.dsl();
     }
 
+    /** Questions about owners, on the same connection. */
+    public OwnerReader owners() {
+        return new OwnerReader(db);
+    }
+
     /** Number of datasets present now. */
     public int datasetCount() {
         return db.fetchCount(DATASET_STATE, DATASET_STATE.VALID_TO.isNull());
@@ -118,12 +123,7 @@ public final class CatalogReader {
                 .where(SCHEMA_VERSION.DATASET_ID.eq(id), Validity.at(SCHEMA_VERSION.VALID_FROM, SCHEMA_VERSION.VALID_TO, asOf))
                 .fetchOne();
         List<ColumnView> columns = schema == null ? List.of() : columnsOf(schema.getId());
-        List<OwnerView> owners = db.select(OWNER.NAME, OWNER.KIND, DATASET_OWNER.REASON)
-                .from(DATASET_OWNER).join(OWNER).on(OWNER.ID.eq(DATASET_OWNER.OWNER_ID))
-                .where(DATASET_OWNER.DATASET_ID.eq(id),
-                        Validity.at(DATASET_OWNER.VALID_FROM, DATASET_OWNER.VALID_TO, asOf))
-                .orderBy(OWNER.NAME)
-                .fetch(r -> new OwnerView(r.value1(), r.value2(), r.value3()));
+        List<OwnerView> owners = new OwnerReader(db).ownersOf(id, asOf);
         return Optional.of(new DatasetView(
                 id, identity.get(DATASET.URI), identity.get(DATASET.NAME), identity.get(DATASET.KIND),
                 identity.get(SOURCE.NAME), state != null, instant(identity.get(DATASET.FIRST_SEEN)),

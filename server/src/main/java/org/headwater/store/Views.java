@@ -39,8 +39,16 @@ public final class Views {
         }
     }
 
-    /** An owner of a dataset, and the rule or evidence that says so. */
-    public record OwnerView(String name, String kind, String reason) {
+    /**
+     * An owner of a dataset, and the rule or evidence that says so.
+     *
+     * @param origin {@code file} (the owners file), {@code manual} (set by a person), {@code declared}
+     *     (another source) or {@code git} (a suggestion from the history of the scripts that write it)
+     * @param inherited given to a folder above the dataset, or to the partitioned set a partition belongs to
+     * @param suggested a person to ask rather than an owner: git authors of the scripts that write it
+     */
+    public record OwnerView(String name, String kind, String reason, String origin, boolean inherited,
+            boolean suggested) {
     }
 
     /** A lineage edge as seen from one of its ends. */
