@@ -10,6 +10,8 @@ import org.headwater.harvest.FolderHarvester;
 import org.headwater.harvest.HarvestProgress;
 import org.headwater.harvest.HarvestSummary;
 import org.headwater.harvest.format.FormatRegistry;
+import org.headwater.harvest.jdbc.DatabaseHarvester;
+import org.headwater.harvest.jdbc.DatabaseSource;
 import org.headwater.ingest.HarvestJournal;
 import org.headwater.ingest.Ingestor;
 import org.headwater.ingest.Sources;
@@ -75,6 +77,11 @@ public final class Catalog implements AutoCloseable {
         FolderHarvester.Options options = FolderHarvester.Options.defaults().excluding(dataDir).withFull(full);
         return new FolderHarvester(ingestor, sources, journal, reader, FormatRegistry.standard(), options,
                 new ScriptLineage(reader)).harvest(folder, progress);
+    }
+
+    /** Harvests a database over JDBC through the ingestion path; a failure is reported in the summary. */
+    public HarvestSummary harvestDatabase(DatabaseSource source, HarvestProgress progress) {
+        return new DatabaseHarvester(ingestor, sources, journal, reader).harvest(source, progress);
     }
 
     public Path dataDir() {
