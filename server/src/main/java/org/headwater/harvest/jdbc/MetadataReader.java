@@ -51,6 +51,7 @@ final class MetadataReader {
         Set<String> unusable = names(connection, dialect.unusableSchemas());
         Map<String, Long> estimates = byName(connection, dialect.rowEstimates(), true);
         Map<String, String> definitions = byName(connection, dialect.viewDefinitions(), false);
+        Map<String, List<String>> keys = keyColumns(connection, dialect.primaryKeys());
         List<Relation> relations = new ArrayList<>();
         Set<String> read = new TreeSet<>();
         Map<String, String> unreadable = new TreeMap<>();
@@ -62,7 +63,7 @@ final class MetadataReader {
                 continue;
             }
             try {
-                SchemaRead one = readSchema(meta, catalog, schema, estimates, definitions);
+                SchemaRead one = readSchema(meta, catalog, schema, estimates, definitions, keys);
                 relations.addAll(one.relations);
                 excluded += one.excluded;
                 read.add(schema);
@@ -78,7 +79,7 @@ final class MetadataReader {
     }
 
     private SchemaRead readSchema(DatabaseMetaData meta, String catalog, String schema, Map<String, Long> estimates,
-            Map<String, String> definitions) throws SQLException {
+            Map<String, String> definitions, Map<String, List<String>> keys) throws SQLException {
         String pattern = escape(meta, schema);
         Map<String, String[]> tables = new LinkedHashMap<>(); // name -> {type, comment}
         int excluded = 0;
@@ -111,7 +112,8 @@ final class MetadataReader {
                         blankToNull(rs.getString("REMARKS"))));
             }
         }
-        Map<String, List<String>> primaryKeys = primaryKeys(meta, catalog, schema, tables.keySet());
+        Map<String, List<String>> primaryKeys = keys != null ? inSchema(keys, schema)
+                : primaryKeys(meta, catalog, schema, tables.keySet());
         Map<String, List<Relation.ForeignKey>> foreignKeys = foreignKeys(meta, catalog, schema, tables.keySet());
         List<Relation> relations = new ArrayList<>();
         for (Map.Entry<String, String[]> t : tables.entrySet()) {
@@ -234,6 +236,31 @@ final class MetadataReader {
             }
         }
         return values;
+    }
+
+    /** Rows of (schema, table, column) in key order, as lists keyed by {@code schema.table}; null without a query. */
+    private static Map<String, List<String>> keyColumns(Connection connection, String sql) throws SQLException {
+        if (sql == null) {
+            return null;
+        }
+        Map<String, List<String>> keys = new HashMap<>();
+        try (Statement s = connection.createStatement(); ResultSet rs = s.executeQuery(sql)) {
+            while (rs.next()) {
+                keys.computeIfAbsent(rs.getString(1) + "\u0000" + rs.getString(2), k -> new ArrayList<>()).add(rs.getString(3));
+            }
+        }
+        return keys;
+    }
+
+    private static Map<String, List<String>> inSchema(Map<String, List<String>> keys, String schema) {
+        Map<String, List<String>> out = new HashMap<>();
+        String prefix = schema + "\u0000";
+        keys.forEach((k, v) -> {
+            if (k.startsWith(prefix)) {
+                out.put(k.substring(prefix.length()), List.copyOf(v));
+            }
+        });
+        return out;
     }
 
     private static String escape(DatabaseMetaData meta, String schema) throws SQLException {
