@@ -9,6 +9,8 @@ import java.util.HashSet;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
+import java.util.Objects;
+import java.util.Optional;
 import java.util.Properties;
 import java.util.Set;
 import java.util.TreeMap;
@@ -199,13 +201,13 @@ public final class DatabaseHarvester {
     }
 
     /** The table comment as the dataset's description, unless a person has written one. */
-    private static java.util.Optional<Observation> note(String uri, String comment, CurrentNote current) {
+    private static Optional<Observation> note(String uri, String comment, CurrentNote current) {
         boolean ours = current == null || COMMENT_AUTHOR.equals(current.author());
         if (!ours || (current == null && comment == null)
-                || (current != null && java.util.Objects.equals(current.description(), comment))) {
-            return java.util.Optional.empty();
+                || (current != null && Objects.equals(current.description(), comment))) {
+            return Optional.empty();
         }
-        return java.util.Optional.of(new NoteSet(uri, comment, current == null ? Set.of() : Set.copyOf(current.tags()),
+        return Optional.of(new NoteSet(uri, comment, current == null ? Set.of() : Set.copyOf(current.tags()),
                 COMMENT_AUTHOR));
     }
 

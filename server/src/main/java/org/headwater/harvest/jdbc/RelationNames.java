@@ -1,5 +1,6 @@
 package org.headwater.harvest.jdbc;
 
+import java.util.ArrayList;
 import java.util.HashMap;
 import java.util.List;
 import java.util.Locale;
@@ -19,7 +20,7 @@ final class RelationNames {
     RelationNames(List<Relation> relations) {
         for (Relation r : relations) {
             byQualified.put(key(r.schema(), r.name()), r);
-            byName.computeIfAbsent(r.name().toLowerCase(Locale.ROOT), k -> new java.util.ArrayList<>()).add(r);
+            byName.computeIfAbsent(r.name().toLowerCase(Locale.ROOT), k -> new ArrayList<>()).add(r);
         }
     }
 
