@@ -21,6 +21,9 @@ start)
     as_owner "$bin/initdb" -D "$dir/data" -U headwater --auth=trust -E UTF8 --locale=C.UTF-8 >"$dir/initdb.log" 2>&1 \
       || { cat "$dir/initdb.log" >&2; exit 1; }
   fi
+  # Members of headwater_password_login must give their password (tests of wrong credentials); the rest is trust.
+  hba="$dir/data/pg_hba.conf"
+  grep -q headwater_password_login "$hba" || as_owner sed -i '1i host all +headwater_password_login 127.0.0.1/32 scram-sha-256' "$hba"
   port=$(python3 -c 'import socket; s=socket.socket(); s.bind(("127.0.0.1",0)); print(s.getsockname()[1])')
   as_owner "$bin/pg_ctl" -D "$dir/data" -l "$dir/server.log" -w \
     -o "-c listen_addresses=127.0.0.1 -p $port -k $dir -c max_connections=200 -c fsync=off" start >/dev/null \

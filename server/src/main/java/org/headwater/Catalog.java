@@ -12,6 +12,8 @@ import org.headwater.harvest.FolderHarvester;
 import org.headwater.harvest.HarvestProgress;
 import org.headwater.harvest.HarvestSummary;
 import org.headwater.harvest.format.FormatRegistry;
+import org.headwater.harvest.jdbc.DatabaseHarvester;
+import org.headwater.harvest.jdbc.DatabaseSource;
 import org.headwater.ingest.HarvestJournal;
 import org.headwater.ingest.Ingestor;
 import org.headwater.ingest.Sources;
@@ -113,6 +115,11 @@ public final class Catalog implements AutoCloseable {
     /** Freshness policies from policy files and from people. */
     public PolicySync policies() {
         return new PolicySync(store, ingestor);
+    }
+
+    /** Harvests a database over JDBC through the ingestion path; a failure is reported in the summary. */
+    public HarvestSummary harvestDatabase(DatabaseSource source, HarvestProgress progress) {
+        return new DatabaseHarvester(ingestor, sources, journal, reader).harvest(source, progress);
     }
 
     public Path dataDir() {

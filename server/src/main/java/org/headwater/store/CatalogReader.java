@@ -580,4 +580,34 @@ public final class CatalogReader {
             throw new StoreException("A stored tag list is not valid JSON: " + json, e);
         }
     }
+    /** The registered name of a source. */
+    public String sourceName(long sourceId) {
+        return db.select(SOURCE.NAME).from(SOURCE).where(SOURCE.ID.eq(sourceId)).fetchOne(SOURCE.NAME);
+    }
+
+    /** A dataset's current description note: who wrote it, and its tags. */
+    public record CurrentNote(String description, List<String> tags, String author) {
+    }
+
+    /** The current notes of one source's datasets, by dataset URI. */
+    public Map<String, CurrentNote> notesOfSource(long sourceId) {
+        Map<String, CurrentNote> notes = new HashMap<>();
+        db.select(DATASET.URI, DATASET_NOTE.DESCRIPTION, DATASET_NOTE.TAGS, DATASET_NOTE.AUTHOR)
+                .from(DATASET_NOTE).join(DATASET).on(DATASET.ID.eq(DATASET_NOTE.DATASET_ID))
+                .where(DATASET.SOURCE_ID.eq(sourceId), DATASET_NOTE.VALID_TO.isNull())
+                .forEach(r -> notes.put(r.value1(), new CurrentNote(r.value2(), parseTags(r.value3()), r.value4())));
+        return notes;
+    }
+
+    /** Current static edges without a script (such as those of database views) into one source's datasets. */
+    public List<StaticEdge> scriptlessEdgesInto(long sourceId) {
+        var source = DATASET.as("s");
+        var target = DATASET.as("t");
+        return db.select(source.URI, target.URI).from(LINEAGE_EDGE)
+                .join(source).on(source.ID.eq(LINEAGE_EDGE.SOURCE_DATASET_ID))
+                .join(target).on(target.ID.eq(LINEAGE_EDGE.TARGET_DATASET_ID))
+                .where(target.SOURCE_ID.eq(sourceId), LINEAGE_EDGE.SCRIPT_ID.isNull(), LINEAGE_EDGE.EVIDENCE.eq("static"),
+                        LINEAGE_EDGE.VALID_TO.isNull())
+                .fetch(r -> new StaticEdge(r.value1(), r.value2(), null));
+    }
 }
