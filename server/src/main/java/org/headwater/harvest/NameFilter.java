@@ -45,7 +45,8 @@ public final class NameFilter {
         try {
             return FileSystems.getDefault().getPathMatcher("glob:" + glob);
         } catch (RuntimeException e) {
-            throw new IllegalArgumentException("Not a valid glob pattern: '" + glob + "': " + e.getMessage(), e);
+            String why = e instanceof java.util.regex.PatternSyntaxException p ? p.getDescription() : e.getMessage();
+            throw new IllegalArgumentException("Not a valid glob pattern: '" + glob + "': " + why, e);
         }
     }
 

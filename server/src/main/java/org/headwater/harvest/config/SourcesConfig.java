@@ -99,8 +99,9 @@ public final class SourcesConfig {
             index++;
             Entry e = new Entry(entry, index, problems);
             SourceSpec spec = e.spec(base);
-            if (spec != null && !names.add(spec.name())) {
-                problems.add(e.label() + ": the name '" + spec.name() + "' is used twice");
+            String name = entry.path("name").asText("");
+            if (!name.isEmpty() && !names.add(name)) {
+                problems.add(e.label() + ": the name '" + name + "' is used twice");
             }
             if (spec != null) {
                 specs.add(spec);
