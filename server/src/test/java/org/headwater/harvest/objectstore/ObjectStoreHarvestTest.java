@@ -1,6 +1,9 @@
 package org.headwater.harvest.objectstore;
 
 import static org.assertj.core.api.Assertions.assertThat;
+import static org.headwater.testing.DatasetLookup.columns;
+import static org.headwater.testing.DatasetLookup.dataset;
+import static org.headwater.testing.DatasetLookup.datasetNames;
 
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
@@ -25,9 +28,6 @@ import org.headwater.harvest.config.SourceRunner;
 import org.headwater.harvest.config.SourcesConfig;
 import org.headwater.store.Views.DatasetView;
 import org.headwater.testing.S3TestServer;
-import static org.headwater.testing.DatasetLookup.columns;
-import static org.headwater.testing.DatasetLookup.dataset;
-import static org.headwater.testing.DatasetLookup.datasetNames;
 import org.headwater.testing.TestCatalogs;
 import org.junit.jupiter.api.AfterAll;
 import org.junit.jupiter.api.BeforeAll;
