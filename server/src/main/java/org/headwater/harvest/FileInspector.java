@@ -54,6 +54,8 @@ final class FileInspector {
         Head head;
         try {
             head = readHead(backend, object, size);
+        } catch (StoreUnavailableException e) {
+            throw new java.io.UncheckedIOException(e);
         } catch (IOException | RuntimeException e) {
             return new Facts(object, size, modified, null, language, null, "unknown", "unreadable",
                     "Could not read the file: " + e.getMessage());

@@ -494,6 +494,9 @@ public final class FolderHarvester {
             Thread.currentThread().interrupt();
             throw new IOException("Harvest interrupted", e);
         } catch (ExecutionException e) {
+            if (e.getCause() instanceof java.io.UncheckedIOException u && u.getCause() instanceof StoreUnavailableException s) {
+                throw s;
+            }
             throw new IOException("Reading a file failed unexpectedly", e.getCause());
         }
     }

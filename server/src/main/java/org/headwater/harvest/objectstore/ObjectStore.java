@@ -8,6 +8,7 @@ import java.util.ArrayList;
 import java.util.List;
 import java.util.function.Function;
 import org.headwater.harvest.StorageBackend;
+import org.headwater.harvest.StoreUnavailableException;
 import org.headwater.harvest.StoredObject;
 import org.headwater.harvest.format.TailReader;
 import software.amazon.awssdk.auth.credentials.AwsBasicCredentials;
@@ -193,7 +194,11 @@ public final class ObjectStore implements StorageBackend, AutoCloseable {
             ResponseBytes<GetObjectResponse> bytes = client.getObjectAsBytes(request.build());
             return bytes.asByteArray();
         } catch (RuntimeException e) {
-            throw new IOException(ObjectStoreErrors.describe(e, settings), e);
+            String message = ObjectStoreErrors.describe(e, settings);
+            if (ObjectStoreErrors.storeWide(e)) {
+                throw new StoreUnavailableException(message, e);
+            }
+            throw new IOException(message, e);
         }
     }
 

@@ -52,6 +52,22 @@ final class ObjectStoreErrors {
         return where + ": " + e;
     }
 
+    /** Codes that say the credentials, not one object, are at fault. */
+    private static final java.util.Set<String> CREDENTIAL_CODES = java.util.Set.of("InvalidAccessKeyId",
+            "SignatureDoesNotMatch", "ExpiredToken");
+
+    /**
+     * Whether a failed object read is the store's failure rather than the object's: no connection, refused
+     * credentials, or a 5xx or throttling answer left after the retries.
+     */
+    static boolean storeWide(RuntimeException e) {
+        if (e instanceof AwsServiceException s) {
+            String code = s.awsErrorDetails() == null ? null : s.awsErrorDetails().errorCode();
+            return s.statusCode() >= 500 || s.isThrottlingException() || CREDENTIAL_CODES.contains(code);
+        }
+        return e instanceof SdkClientException;
+    }
+
     private static Throwable rootCause(Throwable e) {
         Throwable t = e;
         while (t.getCause() != null && t.getCause() != t) {
