@@ -28,7 +28,7 @@ import software.amazon.awssdk.services.s3.model.S3Object;
  * in-process S3 server: Headwater's harvest of the bucket (first harvest, then an unchanged re-harvest)
  * next to, in the same run, a plain SDK loop that lists the bucket and issues one ranged GET of the first
  * 64 KiB per object, once one after another and once on as many threads as the harvest uses.
- * Usage: {@code ObjectStoreBenchmark [objects]}.
+ * Usage: {@code ObjectStoreBenchmark [objects] [flat]}.
  */
 public final class ObjectStoreBenchmark {
     private static final int SAMPLE = 64 * 1024;
@@ -39,14 +39,17 @@ public final class ObjectStoreBenchmark {
 
     public static void main(String[] args) throws Exception {
         int n = args.length > 0 ? Integer.parseInt(args[0]) : 10_000;
+        // "flat" names objects with letters only, so no two share a partition pattern: every object is its own
+        // dataset and the partition-set assembly is left out of the comparison.
+        boolean flat = args.length > 1 && args[1].equals("flat");
         try (S3TestServer server = S3TestServer.start()) {
             server.createBucket("tide-network");
             long fill = System.nanoTime();
-            fill(server, n);
+            fill(server, n, flat);
             System.out.printf("filled %,d objects in %.1f s%n", n, (System.nanoTime() - fill) / 1e9);
 
             // Warm both paths once on a small prefix so neither pays the JIT alone.
-            plainLoop(server.client(), "gauge-000/", 1);
+            plainLoop(server.client(), flat ? "gauge-a/" : "gauge-000/", 1);
             double sequential = seconds(() -> plainLoop(server.client(), "", 1));
             double parallel = seconds(() -> plainLoop(server.client(), "", THREADS));
 
@@ -84,7 +87,7 @@ public final class ObjectStoreBenchmark {
         }
     }
 
-    private static void fill(S3TestServer server, int n) throws Exception {
+    private static void fill(S3TestServer server, int n, boolean flat) throws Exception {
         ExecutorService pool = Executors.newFixedThreadPool(THREADS);
         List<Future<?>> puts = new ArrayList<>();
         for (int i = 0; i < n; i++) {
@@ -95,7 +98,9 @@ public final class ObjectStoreBenchmark {
                     csv.append("2026-01-").append(10 + r % 18).append("T0").append(r % 10).append(":00:00Z,")
                             .append(1 + (id * 7 + r) % 300 / 100.0).append(",G").append(id).append('\n');
                 }
-                server.put("tide-network", "gauge-%03d/day-%05d.csv".formatted(id % 100, id),
+                String key = flat ? "gauge-" + letters(id % 100) + "/log-" + letters(id) + ".csv"
+                        : "gauge-%03d/day-%05d.csv".formatted(id % 100, id);
+                server.put("tide-network", key,
                         csv.toString().getBytes(StandardCharsets.UTF_8));
             }));
         }
@@ -103,6 +108,16 @@ public final class ObjectStoreBenchmark {
             f.get();
         }
         pool.shutdown();
+    }
+
+    private static String letters(int id) {
+        StringBuilder b = new StringBuilder();
+        int v = id;
+        do {
+            b.append((char) ('a' + v % 26));
+            v /= 26;
+        } while (v > 0);
+        return b.toString();
     }
 
     /** Lists the bucket and fetches the first 64 KiB of every object; returns the bytes read. */
