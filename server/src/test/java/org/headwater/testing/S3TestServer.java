@@ -81,8 +81,14 @@ public final class S3TestServer implements AutoCloseable {
     }
 
     @Override
-    public void close() throws Exception {
+    public void close() {
         client.close();
-        proxy.stop();
+        try {
+            proxy.stop();
+        } catch (InterruptedException e) {
+            Thread.currentThread().interrupt();
+        } catch (Exception e) {
+            throw new IllegalStateException("S3Proxy did not stop", e);
+        }
     }
 }
