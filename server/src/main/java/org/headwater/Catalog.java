@@ -11,6 +11,7 @@ import org.headwater.checks.PolicySync;
 import org.headwater.harvest.FolderHarvester;
 import org.headwater.harvest.HarvestProgress;
 import org.headwater.harvest.HarvestSummary;
+import org.headwater.harvest.StorageBackend;
 import org.headwater.harvest.format.FormatRegistry;
 import org.headwater.harvest.jdbc.DatabaseHarvester;
 import org.headwater.harvest.jdbc.DatabaseSource;
@@ -120,6 +121,31 @@ public final class Catalog implements AutoCloseable {
     /** Harvests a database over JDBC through the ingestion path; a failure is reported in the summary. */
     public HarvestSummary harvestDatabase(DatabaseSource source, HarvestProgress progress) {
         return new DatabaseHarvester(ingestor, sources, journal, reader).harvest(source, progress);
+    }
+
+    /** The folder harvest's defaults for this catalog: its own directory is never harvested. */
+    public FolderHarvester.Options harvestOptions(boolean full) {
+        return FolderHarvester.Options.defaults().excluding(dataDir).withFull(full);
+    }
+
+    /** Harvests any storage backend (a configured folder, an object-store prefix) through the ingestion path. */
+    public HarvestSummary harvest(StorageBackend backend, String sourceName, FolderHarvester.Options options,
+            HarvestProgress progress) throws IOException {
+        ScriptLineage scripts = backend.localRoot().isPresent() ? new ScriptLineage(reader) : null;
+        return new FolderHarvester(ingestor, sources, journal, reader, FormatRegistry.standard(), options, scripts)
+                .harvest(backend, sourceName, progress);
+    }
+
+    /**
+     * Records a harvest of a source that failed before it could start (bad settings, missing folder): the
+     * source gets a harvest record with status failed and the message, and nothing else changes.
+     */
+    public long recordFailedHarvest(String sourceName, String kind, String rootUri, String message) {
+        long sourceId = sources.ensure(sourceName, kind, rootUri);
+        long harvestId = journal.start(sourceId);
+        journal.error(harvestId, rootUri, "harvest_failed", message);
+        journal.finish(harvestId, HarvestJournal.FAILED, new HarvestJournal.Counts(0, 0, 0, 0, 0, 0, 0, 1));
+        return harvestId;
     }
 
     public Path dataDir() {

@@ -7,6 +7,10 @@ import java.util.concurrent.CompletionException;
 import java.util.concurrent.CountDownLatch;
 import java.util.function.Function;
 import org.headwater.Catalog;
+import org.headwater.harvest.config.ConfigException;
+import org.headwater.harvest.config.SourceRunner;
+import org.headwater.harvest.config.SourceSchedule;
+import org.headwater.harvest.config.SourcesConfig;
 import org.headwater.http.ApiServer;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
@@ -16,7 +20,8 @@ import picocli.CommandLine.Spec;
 /** {@code headwater serve}: the HTTP API and web UI for one catalog, until stopped. */
 @Command(name = "serve", mixinStandardHelpOptions = true,
         description = {"Serve the catalog over HTTP: the JSON API under /api and the web UI at /.",
-                "Listens on 127.0.0.1 only unless --host says otherwise. Stop with Ctrl-C."})
+                "Listens on 127.0.0.1 only unless --host says otherwise. Stop with Ctrl-C.",
+                "With --config, the sources that have a schedule are harvested while it serves."})
 final class ServeCommand implements Callable<Integer> {
     @Mixin
     ListenOptions listen;
@@ -34,20 +39,59 @@ final class ServeCommand implements Callable<Integer> {
                     + " (retried up to 5 times with backoff).")
     java.net.URI webhook;
 
+    @Option(names = "--config", paramLabel = "FILE",
+            description = "A sources file: sources with an 'every' schedule are harvested while serving.")
+    java.nio.file.Path config;
+
     @Spec
     picocli.CommandLine.Model.CommandSpec spec;
 
     @Override
-    public Integer call() throws InterruptedException {
+    public Integer call() throws Exception {
         java.time.Duration period = checkPeriod();
         org.headwater.checks.Webhook hook = webhookOption();
+        SourcesConfig sources = config == null ? null : readSources(config);
+        PrintWriter out = spec.commandLine().getOut();
         // The store opens while the HTTP server starts: the two are the bulk of start-up time.
-        serveUntilStopped(CompletableFuture.supplyAsync(catalog::open), listen.host, listen.port, spec.commandLine().getOut(),
+        serveUntilStopped(CompletableFuture.supplyAsync(catalog::open), listen.host, listen.port, out,
                 server -> "Headwater is serving " + catalog.dataDir.toAbsolutePath().normalize() + " at " + server.url(),
-                open -> period == null ? () -> { }
-                        : org.headwater.checks.CheckSchedule.start(open::freshness, period, hook),
+                open -> {
+                    AutoCloseable checks = period == null ? () -> { }
+                            : org.headwater.checks.CheckSchedule.start(open::freshness, period, hook);
+                    SourceSchedule harvests = startHarvests(open, sources, out);
+                    return () -> {
+                        harvests.close();
+                        checks.close();
+                    };
+                },
                 () -> { });
         return Main.OK;
+    }
+
+    /** Starts the scheduled harvests of the sources file, if one was given. */
+    private SourceSchedule startHarvests(Catalog open, SourcesConfig sources, PrintWriter out) {
+        SourceSchedule schedule = new SourceSchedule();
+        if (sources != null) {
+            int n = schedule.start(sources, new SourceRunner(open, Databases.of(open), System::getenv), o -> {
+                synchronized (out) {
+                    out.println("harvest of " + o.source() + ": " + o.status()
+                            + (o.message() == null ? "" : ": " + o.message()));
+                    out.flush();
+                }
+            });
+            out.println("Harvesting " + n + " scheduled source" + (n == 1 ? "" : "s") + " from " + config);
+        }
+        return schedule;
+    }
+
+    static SourcesConfig readSources(java.nio.file.Path file) throws java.io.IOException {
+        try {
+            return SourcesConfig.read(file);
+        } catch (java.nio.file.NoSuchFileException e) {
+            throw new Problems.UsageProblem("no such sources file: " + file);
+        } catch (ConfigException e) {
+            throw new Problems.UsageProblem(e.getMessage());
+        }
     }
 
     private java.time.Duration checkPeriod() {

@@ -42,9 +42,11 @@ import org.headwater.store.Views.HarvestErrorView;
 import org.headwater.store.Views.KnownFile;
 
 /**
- * Harvests a local folder: every regular file becomes a dataset, a partition of a partitioned set, or a
- * script. Hidden files and folders, the catalog's own directory, symbolic links and special files are left
- * alone. A file whose size and modification time are unchanged since the last harvest is not read again.
+ * Harvests a storage root (a local folder, an object-store prefix: see {@link StorageBackend}): every
+ * regular file becomes a dataset, a partition of a partitioned set, or a script, and every table folder
+ * (Delta Lake, Apache Iceberg) one dataset. Hidden files and folders, the catalog's own directory, symbolic
+ * links and special files are left alone. A file whose size and modification time (and ETag, where the store
+ * has one) are unchanged since the last harvest is not read again.
  * A file that cannot be read is recorded with its error, and the harvest goes on.
  *
  * <p>The walk comes first (it only lists), so that files sharing a partition pattern can be grouped
@@ -63,24 +65,47 @@ public final class FolderHarvester {
      * @param threads how many files are read at once
      */
     public record Options(long hashCapBytes, int sampleBytes, int batchSize, Set<Path> excluded, boolean full,
-            int threads) {
+            int threads, NameFilter filter, boolean sampling) {
         public Options {
             excluded = Set.copyOf(excluded);
+            Objects.requireNonNull(filter, "filter");
         }
 
         public static Options defaults() {
             return new Options(64L * 1024 * 1024, 64 * 1024, 250, Set.of(), false,
-                    Math.max(1, Math.min(4, Runtime.getRuntime().availableProcessors())));
+                    Math.max(1, Math.min(4, Runtime.getRuntime().availableProcessors())), NameFilter.ALL, true);
         }
 
         public Options excluding(Path folder) {
             Set<Path> more = new HashSet<>(excluded);
             more.add(folder.toAbsolutePath().normalize());
-            return new Options(hashCapBytes, sampleBytes, batchSize, more, full, threads);
+            return new Options(hashCapBytes, sampleBytes, batchSize, more, full, threads, filter, sampling);
         }
 
         public Options withFull(boolean value) {
-            return new Options(hashCapBytes, sampleBytes, batchSize, excluded, value, threads);
+            return new Options(hashCapBytes, sampleBytes, batchSize, excluded, value, threads, filter, sampling);
+        }
+
+        /** Only objects whose relative names the filter selects are harvested. */
+        public Options withFilter(NameFilter value) {
+            return new Options(hashCapBytes, sampleBytes, batchSize, excluded, full, threads, value, sampling);
+        }
+
+        /**
+         * Whether cell values (a column's minimum and maximum) may be kept. Off strips them from what the
+         * readers found before anything reaches the store.
+         */
+        public Options withSampling(boolean value) {
+            return new Options(hashCapBytes, sampleBytes, batchSize, excluded, full, threads, filter, value);
+        }
+
+        /** How many bytes of each object the format readers see. */
+        public Options withSampleBytes(int value) {
+            return new Options(hashCapBytes, value, batchSize, excluded, full, threads, filter, sampling);
+        }
+
+        public Options withThreads(int value) {
+            return new Options(hashCapBytes, sampleBytes, batchSize, excluded, full, value, filter, sampling);
         }
     }
 
@@ -117,12 +142,22 @@ public final class FolderHarvester {
         if (!Files.isDirectory(folder)) {
             throw new NoSuchFileException(folder.toString(), null, "not a directory");
         }
-        Path root = folder.toRealPath();
-        String name = root.getFileName() == null ? "root" : root.getFileName().toString();
-        long sourceId = sources.ensure(name, "folder", root.toUri().toString());
+        LocalFolder backend = new LocalFolder(folder.toRealPath(), options.excluded());
+        return harvest(backend, backend.defaultName(), progress);
+    }
+
+    /**
+     * Harvests one storage root: lists it, groups partitions, reads table folders as one dataset each, reads
+     * what changed, and ends what vanished. When the listing fails nothing is observed, so the source keeps
+     * its previous state; the harvest is recorded as failed and the error thrown.
+     *
+     * @param name the preferred source name (a configured source's own)
+     */
+    public HarvestSummary harvest(StorageBackend backend, String name, HarvestProgress progress) throws IOException {
+        long sourceId = sources.ensure(name, backend.kind(), backend.rootUri());
         long harvestId = journal.start(sourceId);
         long started = System.nanoTime();
-        Run run = new Run(root, sourceId, harvestId, reader.knownFiles(sourceId), progress);
+        Run run = new Run(backend, sourceId, harvestId, reader.knownFiles(sourceId), progress);
         ExecutorService pool = Executors.newFixedThreadPool(options.threads(), r -> {
             Thread t = new Thread(r, "headwater-harvest");
             t.setDaemon(true);
@@ -130,75 +165,41 @@ public final class FolderHarvester {
         });
         String status;
         try {
-            Lister lister = new Lister(root, run);
-            Files.walkFileTree(root, lister);
-            run.process(lister.files, pool);
+            StorageBackend.Listing listing = backend.list();
+            run.ignored += listing.ignored();
+            listing.problems().forEach(p -> run.error(p.uri(), p.kind(), p.message()));
+            List<StoredObject> selected = new ArrayList<>();
+            for (StoredObject o : listing.objects()) {
+                if (options.filter().selects(o.name())) {
+                    selected.add(o);
+                } else {
+                    run.ignored++;
+                }
+            }
+            List<StoredObject> files = run.tables(selected);
+            run.process(files, pool);
+            run.readTables(pool);
             run.assembleSets();
             run.removeVanished();
             run.analyseScripts(name);
             run.applyOwnersFile();
             status = run.errors == 0 ? HarvestJournal.OK : HarvestJournal.WITH_ERRORS;
         } catch (IOException | RuntimeException e) {
-            journal.error(harvestId, root.toUri().toString(), "harvest_failed", String.valueOf(e.getMessage()));
+            journal.error(harvestId, backend.rootUri(), "harvest_failed", String.valueOf(e.getMessage()));
             run.errors++;
             journal.finish(harvestId, HarvestJournal.FAILED, run.counts());
             progress.finished();
-            throw e;
+            throw new HarvestFailedException(harvestId, e);
         } finally {
             pool.shutdownNow();
             run.git.close();
         }
         journal.finish(harvestId, status, run.counts());
         progress.finished();
-        return new HarvestSummary(harvestId, name, root.toString(), status, run.filesSeen, run.unchanged, run.ignored,
+        String shown = backend.localRoot().map(Path::toString).orElse(backend.rootUri());
+        return new HarvestSummary(harvestId, name, shown, status, run.filesSeen, run.unchanged, run.ignored,
                 run.datasets, run.scripts, run.changes, run.removed, run.errors, run.errorsByKind,
                 List.copyOf(run.firstErrors), (System.nanoTime() - started) / 1_000_000);
-    }
-
-    /** A regular file found by the walk, not read yet. */
-    private record Listed(Path file, BasicFileAttributes attrs, String name) {
-    }
-
-    /** Lists the files of the root, skipping what is never harvested. */
-    private final class Lister extends SimpleFileVisitor<Path> {
-        final Path root;
-        final Run run;
-        final List<Listed> files = new ArrayList<>();
-
-        Lister(Path root, Run run) {
-            this.root = root;
-            this.run = run;
-        }
-
-        @Override
-        public FileVisitResult preVisitDirectory(Path dir, BasicFileAttributes attrs) {
-            if (dir.equals(root)) {
-                return FileVisitResult.CONTINUE;
-            }
-            if (isHidden(dir) || options.excluded().contains(dir.toAbsolutePath().normalize())) {
-                return FileVisitResult.SKIP_SUBTREE;
-            }
-            return FileVisitResult.CONTINUE;
-        }
-
-        @Override
-        public FileVisitResult visitFile(Path file, BasicFileAttributes attrs) {
-            // walkFileTree does not follow links, so a link arrives here as a link: never followed, so
-            // nothing outside the root is ever read through one.
-            if (!attrs.isRegularFile() || attrs.isSymbolicLink() || isHidden(file)) {
-                run.ignored++;
-            } else {
-                files.add(new Listed(file, attrs, root.relativize(file).toString().replace(java.io.File.separatorChar, '/')));
-            }
-            return FileVisitResult.CONTINUE;
-        }
-
-        @Override
-        public FileVisitResult visitFileFailed(Path file, IOException e) {
-            // The file or folder vanished or cannot be opened: say so and go on.
-            run.error(file.toUri().toString(), "unreadable", e.getClass().getSimpleName() + ": " + e.getMessage());
-            return FileVisitResult.CONTINUE;
-        }
     }
 
     /** A partitioned set found in this harvest. */
@@ -207,7 +208,7 @@ public final class FolderHarvester {
 
     /** The state of one harvest of a root. */
     private final class Run {
-        final Path root;
+        final StorageBackend backend;
         final long sourceId;
         final long harvestId;
         final Map<String, KnownFile> known;
@@ -227,8 +228,10 @@ public final class FolderHarvester {
         int removed;
         int errors;
 
-        Run(Path root, long sourceId, long harvestId, Map<String, KnownFile> known, HarvestProgress progress) {
-            this.root = root;
+        final Map<String, List<StoredObject>> tableMembers = new TreeMap<>();
+
+        Run(StorageBackend backend, long sourceId, long harvestId, Map<String, KnownFile> known, HarvestProgress progress) {
+            this.backend = backend;
             this.sourceId = sourceId;
             this.harvestId = harvestId;
             this.known = known;
@@ -238,18 +241,69 @@ public final class FolderHarvester {
             }
         }
 
-        void process(List<Listed> files, ExecutorService pool) throws IOException {
+        /** Sets the objects of table folders aside (each folder is one dataset) and returns the rest. */
+        List<StoredObject> tables(List<StoredObject> objects) {
+            Map<String, TableFolders.Format> roots = TableFolders.find(objects);
+            if (roots.isEmpty()) {
+                return objects;
+            }
+            List<StoredObject> rest = new ArrayList<>();
+            for (StoredObject o : objects) {
+                String table = TableFolders.tableOf(o.name(), roots.keySet());
+                if (table == null) {
+                    rest.add(o);
+                } else {
+                    tableMembers.computeIfAbsent(table, k -> new ArrayList<>()).add(o);
+                }
+            }
+            return rest;
+        }
+
+        /**
+         * Each table folder becomes one dataset read from its own metadata (always read: logs are small,
+         * and an unchanged table applies as no change).
+         */
+        void readTables(ExecutorService pool) throws IOException {
+            List<String> prefixes = new ArrayList<>(tableMembers.keySet());
+            List<Future<TableFolders.Result>> reading = new ArrayList<>();
+            for (String prefix : prefixes) {
+                reading.add(pool.submit(() -> TableFolders.read(backend, prefix, tableMembers.get(prefix))));
+            }
+            for (int i = 0; i < prefixes.size(); i++) {
+                String prefix = prefixes.get(i);
+                TableFolders.Result result = awaitTable(reading.get(i));
+                String uri = backend.uriOf(prefix);
+                filesSeen += tableMembers.get(prefix).size();
+                datasets++;
+                seen.get(FileRole.DATASET).add(uri);
+                String name = prefix.isEmpty() ? backend.defaultName() : prefix.substring(0, prefix.length() - 1);
+                if (result.error() != null) {
+                    error(uri, "unreadable_table", result.error());
+                    add(new DatasetSeen(uri, name, DatasetKind.TABLE, sourceId, result.format(), null, null, null,
+                            null, false, null, result.error(), null));
+                } else {
+                    Reading r = result.reading();
+                    add(new DatasetSeen(uri, name, r.kind(), sourceId, r.format(), result.sizeBytes(),
+                            result.modified(), null, r.rowCount(), r.rowCountExact(), Json.canonical(r.details()), null,
+                            r.columns()));
+                }
+                progress.filesSeen(filesSeen);
+            }
+            flush();
+        }
+
+        void process(List<StoredObject> files, ExecutorService pool) throws IOException {
             Map<String, Placement> placements = group(files);
             for (int from = 0; from < files.size(); from += options.batchSize()) {
-                List<Listed> chunk = files.subList(from, Math.min(files.size(), from + options.batchSize()));
+                List<StoredObject> chunk = files.subList(from, Math.min(files.size(), from + options.batchSize()));
                 List<Future<Facts>> reading = new ArrayList<>();
-                List<Listed> toRead = new ArrayList<>();
-                for (Listed f : chunk) {
+                List<StoredObject> toRead = new ArrayList<>();
+                for (StoredObject f : chunk) {
                     filesSeen++;
                     Placement placement = placements.get(f.name());
-                    FileRole role = org.headwater.model.Language.ofFileName(f.file().getFileName().toString()).isPresent()
+                    FileRole role = org.headwater.model.Language.ofFileName(f.fileName()).isPresent()
                             ? FileRole.SCRIPT : placement != null ? FileRole.PARTITION : FileRole.DATASET;
-                    String uri = f.file().toUri().toString();
+                    String uri = f.uri();
                     seen.get(role).add(uri);
                     if (role == FileRole.SCRIPT) {
                         scripts++;
@@ -257,18 +311,18 @@ public final class FolderHarvester {
                         datasets++;
                     }
                     KnownFile before = known.get(uri);
-                    if (!options.full() && before != null && before.role() == role && unchanged(before, f.attrs())) {
+                    if (!options.full() && before != null && before.role() == role && unchanged(before, f)) {
                         unchanged++;
                         continue;
                     }
                     toRead.add(f);
-                    reading.add(pool.submit(() -> inspector.inspect(f.file(), f.attrs())));
+                    reading.add(pool.submit(() -> inspector.inspect(backend, f)));
                 }
                 for (int i = 0; i < toRead.size(); i++) {
-                    Listed f = toRead.get(i);
+                    StoredObject f = toRead.get(i);
                     Facts facts = await(reading.get(i));
                     if (facts.errorKind() != null) {
-                        error(f.file().toUri().toString(), facts.errorKind(), facts.errorMessage());
+                        error(f.uri(), facts.errorKind(), facts.errorMessage());
                     }
                     add(observation(f, facts, placements.get(f.name())));
                 }
@@ -278,10 +332,10 @@ public final class FolderHarvester {
         }
 
         /** Files that share a partition pattern with at least one other file, by name. */
-        private Map<String, Placement> group(List<Listed> files) {
+        private Map<String, Placement> group(List<StoredObject> files) {
             Map<String, List<String>> byPattern = new HashMap<>();
             Map<String, Placement> placed = new HashMap<>();
-            for (Listed f : files) {
+            for (StoredObject f : files) {
                 PartitionPatterns.place(f.name()).ifPresent(p -> {
                     placed.put(f.name(), p);
                     byPattern.computeIfAbsent(p.pattern(), k -> new ArrayList<>()).add(f.name());
@@ -296,24 +350,24 @@ public final class FolderHarvester {
                     Placement p = placed.get(member);
                     grouped.put(member, p);
                     sets.computeIfAbsent(p.pattern(), pattern -> new SetInfo(
-                            root.resolve(pattern).toUri().toString(), pattern, List.copyOf(p.keys().keySet())));
+                            backend.uriOf(pattern), pattern, List.copyOf(p.keys().keySet())));
                 }
             }
             datasets += sets.size();
             return grouped;
         }
 
-        private Observation observation(Listed f, Facts facts, Placement placement) {
-            String uri = f.file().toUri().toString();
+        private Observation observation(StoredObject f, Facts facts, Placement placement) {
+            String uri = f.uri();
             if (facts.language().isPresent()) {
-                var git = this.git.of(f.file());
+                var git = backend.localFile(f).flatMap(this.git::of);
                 return new ScriptSeen(uri, f.name(), facts.language().get(), sourceId, facts.size(), facts.modified(),
                         facts.sha256(), git.map(GitHistory.FileHistory::commit).orElse(null),
                         git.map(GitHistory.FileHistory::author).orElse(null),
                         git.map(GitHistory.FileHistory::committedAt).orElse(null),
                         git.map(GitHistory.FileHistory::authors).orElse(List.of()));
             }
-            Reading r = facts.reading();
+            Reading r = options.sampling() ? facts.reading() : ValueSamples.withoutValues(facts.reading());
             if (placement != null) {
                 SetInfo set = sets.get(placement.pattern());
                 return new PartitionSeen(set.uri(), set.name(), sourceId, uri, f.name(), Json.canonical(placement.keys()),
@@ -348,10 +402,13 @@ public final class FolderHarvester {
             flush();
         }
 
-        private boolean unchanged(KnownFile before, BasicFileAttributes attrs) {
-            return Objects.equals(before.sizeBytes(), attrs.size())
+        private boolean unchanged(KnownFile before, StoredObject now) {
+            // Where the store gives an ETag it must match too: a rewrite within the same second and size
+            // keeps the modification time and size of an object store, not its ETag.
+            return Objects.equals(before.sizeBytes(), now.size())
                     && before.modifiedAt() != null
-                    && before.modifiedAt().equals(attrs.lastModifiedTime().toInstant().truncatedTo(ChronoUnit.MICROS));
+                    && before.modifiedAt().equals(now.modified().truncatedTo(ChronoUnit.MICROS))
+                    && (now.etag() == null || Objects.equals(before.contentHash(), FileInspector.etagIdentity(now.etag())));
         }
 
         void error(String uri, String kind, String message) {
@@ -404,7 +461,8 @@ public final class FolderHarvester {
          * a reference, and a changed config module can change every script that imports it.
          */
         void analyseScripts(String sourceName) {
-            if (scriptLineage == null || (changes == 0 && !options.full())) {
+            Path root = backend.localRoot().orElse(null);
+            if (root == null || scriptLineage == null || (changes == 0 && !options.full())) {
                 return;
             }
             try {
@@ -436,6 +494,17 @@ public final class FolderHarvester {
         }
     }
 
+    private static TableFolders.Result awaitTable(Future<TableFolders.Result> future) throws IOException {
+        try {
+            return future.get();
+        } catch (InterruptedException e) {
+            Thread.currentThread().interrupt();
+            throw new IOException("Harvest interrupted", e);
+        } catch (ExecutionException e) {
+            throw new IOException("Reading a table failed unexpectedly", e.getCause());
+        }
+    }
+
     private static Facts await(Future<Facts> future) throws IOException {
         try {
             return future.get();
@@ -443,6 +512,9 @@ public final class FolderHarvester {
             Thread.currentThread().interrupt();
             throw new IOException("Harvest interrupted", e);
         } catch (ExecutionException e) {
+            if (e.getCause() instanceof java.io.UncheckedIOException u && u.getCause() instanceof StoreUnavailableException s) {
+                throw s;
+            }
             throw new IOException("Reading a file failed unexpectedly", e.getCause());
         }
     }

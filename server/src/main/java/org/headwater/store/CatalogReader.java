@@ -371,22 +371,24 @@ public final class CatalogReader {
     /** Files of one source that are present now, keyed by URI, for incremental harvest. */
     public Map<String, KnownFile> knownFiles(long sourceId) {
         Map<String, KnownFile> known = new HashMap<>();
-        // Only files: tables and views that scripts define belong to the source but are no files of it.
-        db.select(DATASET.URI, DATASET_STATE.SIZE_BYTES, DATASET_STATE.MODIFIED_AT)
+        // Only files and objects: tables and views that scripts define belong to the source but are no files of it.
+        db.select(DATASET.URI, DATASET_STATE.SIZE_BYTES, DATASET_STATE.MODIFIED_AT, DATASET_STATE.CONTENT_HASH)
                 .from(DATASET).join(DATASET_STATE).on(DATASET_STATE.DATASET_ID.eq(DATASET.ID))
-                .where(DATASET.SOURCE_ID.eq(sourceId), DATASET_STATE.VALID_TO.isNull(), DATASET.URI.startsWith("file:"))
+                .where(DATASET.SOURCE_ID.eq(sourceId), DATASET_STATE.VALID_TO.isNull(),
+                        DATASET.URI.startsWith("file:").or(DATASET.URI.startsWith("s3:")))
                 .forEach(r -> known.put(r.value1(), new KnownFile(r.value1(), r.value2(), instant(r.value3()),
-                        FileRole.DATASET, null)));
-        db.select(SCRIPT.URI, SCRIPT_STATE.SIZE_BYTES, SCRIPT_STATE.MODIFIED_AT)
+                        FileRole.DATASET, null, r.value4())));
+        db.select(SCRIPT.URI, SCRIPT_STATE.SIZE_BYTES, SCRIPT_STATE.MODIFIED_AT, SCRIPT_STATE.CONTENT_HASH)
                 .from(SCRIPT).join(SCRIPT_STATE).on(SCRIPT_STATE.SCRIPT_ID.eq(SCRIPT.ID))
                 .where(SCRIPT.SOURCE_ID.eq(sourceId), SCRIPT_STATE.VALID_TO.isNull())
                 .forEach(r -> known.put(r.value1(), new KnownFile(r.value1(), r.value2(), instant(r.value3()),
-                        FileRole.SCRIPT, null)));
-        db.select(DATASET_PARTITION.URI, DATASET_PARTITION.SIZE_BYTES, DATASET_PARTITION.MODIFIED_AT, DATASET.URI)
+                        FileRole.SCRIPT, null, r.value4())));
+        db.select(DATASET_PARTITION.URI, DATASET_PARTITION.SIZE_BYTES, DATASET_PARTITION.MODIFIED_AT, DATASET.URI,
+                        DATASET_PARTITION.CONTENT_HASH)
                 .from(DATASET_PARTITION).join(DATASET).on(DATASET.ID.eq(DATASET_PARTITION.DATASET_ID))
                 .where(DATASET.SOURCE_ID.eq(sourceId), DATASET_PARTITION.VALID_TO.isNull())
                 .forEach(r -> known.put(r.value1(), new KnownFile(r.value1(), r.value2(), instant(r.value3()),
-                        FileRole.PARTITION, r.value4())));
+                        FileRole.PARTITION, r.value4(), r.value5())));
         return known;
     }
 

@@ -95,7 +95,9 @@ public final class Views {
     }
 
     /** A file the catalog already holds, with what incremental harvest compares. */
-    public record KnownFile(String uri, Long sizeBytes, Instant modifiedAt, FileRole role, String setUri) {
+    /** A file or object a source harvested before; {@code contentHash} is a SHA-256 or {@code etag:<tag>}. */
+    public record KnownFile(String uri, Long sizeBytes, Instant modifiedAt, FileRole role, String setUri,
+            String contentHash) {
     }
 
     /** What a harvested file is in the catalog. */

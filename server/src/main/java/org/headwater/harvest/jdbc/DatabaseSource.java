@@ -34,6 +34,11 @@ public record DatabaseSource(String name, String jdbcUrl, String user, String pa
         return last.isBlank() ? "database" : last;
     }
 
+    /** The JDBC URL without user information or password-like settings: safe to store and show. */
+    public String safeUrl() {
+        return Secrets.safeUrl(jdbcUrl);
+    }
+
     @Override
     public String toString() {
         // The URL may carry credentials; the record's printed form must not.

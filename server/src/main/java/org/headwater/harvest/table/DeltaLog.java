@@ -1,0 +1,212 @@
+package org.headwater.harvest.table;
+
+import com.fasterxml.jackson.databind.JsonNode;
+import com.fasterxml.jackson.databind.ObjectMapper;
+import java.io.BufferedReader;
+import java.io.ByteArrayInputStream;
+import java.io.IOException;
+import java.io.InputStreamReader;
+import java.nio.charset.StandardCharsets;
+import java.time.Instant;
+import java.util.ArrayList;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+import java.util.TreeMap;
+import java.util.TreeSet;
+import java.util.regex.Matcher;
+import java.util.regex.Pattern;
+import org.headwater.model.ColumnDef;
+
+/**
+ * Reads a Delta Lake table from its transaction log, following the Delta Transaction Log Protocol
+ * (PROTOCOL.md, "Delta Table Specification"): commits are {@code _delta_log/<version, 20 digits>.json},
+ * one action per line; the table's state is the replay of {@code metaData}, {@code add} and {@code remove}
+ * actions in version order; {@code commitInfo} carries the operation and its timestamp.
+ *
+ * <p>Parquet checkpoints are recognised (their versions are reported) but not replayed: when the log no
+ * longer starts at version 0 and no later commit restates the metadata, the table is reported unreadable
+ * rather than guessed.
+ */
+public final class DeltaLog {
+    private static final ObjectMapper JSON = new ObjectMapper();
+    private static final Pattern COMMIT = Pattern.compile("_delta_log/(\\d{20})\\.json");
+    private static final Pattern CHECKPOINT = Pattern.compile("_delta_log/(\\d{20})\\.checkpoint(\\..+)?\\.parquet");
+
+    private DeltaLog() {
+    }
+
+    /** Whether a name relative to a table folder's parent is a Delta commit file; group 1 is the table folder. */
+    public static final Pattern COMMIT_ANYWHERE = Pattern.compile("(^|.*/)_delta_log/\\d{20}\\.json");
+
+    public static TableReading read(List<TableFile> files) throws UnreadableTableException, IOException {
+        TreeMap<Long, TableFile> commits = new TreeMap<>();
+        TreeSet<Long> checkpoints = new TreeSet<>();
+        for (TableFile f : files) {
+            Matcher c = COMMIT.matcher(f.name());
+            if (c.matches()) {
+                commits.put(Long.parseLong(c.group(1)), f);
+            }
+            Matcher p = CHECKPOINT.matcher(f.name());
+            if (p.matches()) {
+                checkpoints.add(Long.parseLong(p.group(1)));
+            }
+        }
+        if (commits.isEmpty()) {
+            throw new UnreadableTableException("The _delta_log folder holds no commit files");
+        }
+        boolean complete = commits.firstKey() == 0;
+        List<Map<String, Object>> versions = new ArrayList<>();
+        List<Map<String, Object>> schemas = new ArrayList<>();
+        Map<String, Long> liveFiles = new LinkedHashMap<>();
+        Map<String, Long> liveRows = new LinkedHashMap<>();
+        List<ColumnDef> columns = null;
+        List<String> partitionColumns = List.of();
+        String tableId = null;
+        String schemaString = null;
+        Map<String, Object> protocol = null;
+        Instant modified = null;
+        for (Map.Entry<Long, TableFile> e : commits.entrySet()) {
+            long version = e.getKey();
+            Instant timestamp = null;
+            String operation = null;
+            boolean schemaChanged = false;
+            for (JsonNode action : actions(e.getValue())) {
+                if (action.has("commitInfo")) {
+                    JsonNode info = action.get("commitInfo");
+                    // PROTOCOL.md "Commit Provenance Information": implementation-specific; timestamp and operation
+                    // are what writers put there.
+                    if (info.hasNonNull("timestamp")) {
+                        timestamp = Instant.ofEpochMilli(info.get("timestamp").asLong());
+                    }
+                    operation = info.path("operation").asText(null);
+                } else if (action.has("metaData")) {
+                    JsonNode meta = action.get("metaData");
+                    tableId = meta.path("id").asText(tableId);
+                    String text = meta.path("schemaString").asText(null);
+                    if (text != null && !text.equals(schemaString)) {
+                        schemaString = text;
+                        columns = columns(text);
+                        schemaChanged = true;
+                    }
+                    List<String> parts = new ArrayList<>();
+                    meta.path("partitionColumns").forEach(p -> parts.add(p.asText()));
+                    partitionColumns = List.copyOf(parts);
+                } else if (action.has("protocol")) {
+                    JsonNode p = action.get("protocol");
+                    protocol = new LinkedHashMap<>();
+                    protocol.put("min_reader_version", p.path("minReaderVersion").asInt());
+                    protocol.put("min_writer_version", p.path("minWriterVersion").asInt());
+                } else if (action.has("add")) {
+                    JsonNode add = action.get("add");
+                    String path = add.path("path").asText();
+                    liveFiles.put(path, add.path("size").asLong());
+                    liveRows.put(path, numRecords(add.path("stats").asText(null)));
+                } else if (action.has("remove")) {
+                    String path = action.get("remove").path("path").asText();
+                    liveFiles.remove(path);
+                    liveRows.remove(path);
+                }
+            }
+            // PROTOCOL.md "Commit Provenance Information" / "In-Commit Timestamps": without a recorded
+            // timestamp, a commit's time is its file's modification time.
+            Instant at = timestamp != null ? timestamp : e.getValue().modified();
+            modified = at;
+            Map<String, Object> v = new LinkedHashMap<>();
+            v.put("version", version);
+            v.put("timestamp", at.toString());
+            v.put("operation", operation);
+            versions.add(v);
+            if (schemaChanged) {
+                Map<String, Object> s = new LinkedHashMap<>();
+                s.put("from_version", version);
+                s.put("timestamp", at.toString());
+                s.put("columns", columnMaps(columns));
+                schemas.add(s);
+            }
+        }
+        if (columns == null) {
+            throw new UnreadableTableException("The table's schema is only in a checkpoint (log starts at version "
+                    + commits.firstKey() + "); Parquet checkpoints are not read");
+        }
+        Long rows = null;
+        if (complete && liveRows.values().stream().allMatch(r -> r != null)) {
+            rows = liveRows.values().stream().mapToLong(Long::longValue).sum();
+        }
+        Long size = complete ? liveFiles.values().stream().mapToLong(Long::longValue).sum() : null;
+        Map<String, Object> details = new LinkedHashMap<>();
+        details.put("table_format", "delta");
+        details.put("table_id", tableId);
+        details.put("current_version", commits.lastKey());
+        details.put("partition_columns", partitionColumns);
+        details.put("data_files", complete ? liveFiles.size() : null);
+        details.put("protocol", protocol);
+        details.put("checkpoints", List.copyOf(checkpoints));
+        details.put("versions", versions);
+        details.put("schemas", schemas);
+        return new TableReading("delta", columns, rows, size, modified, details);
+    }
+
+    private static List<JsonNode> actions(TableFile file) throws IOException, UnreadableTableException {
+        List<JsonNode> actions = new ArrayList<>();
+        try (BufferedReader lines = new BufferedReader(new InputStreamReader(new ByteArrayInputStream(file.read()),
+                StandardCharsets.UTF_8))) {
+            String line;
+            int number = 0;
+            while ((line = lines.readLine()) != null) {
+                number++;
+                if (line.isBlank()) {
+                    continue;
+                }
+                try {
+                    actions.add(JSON.readTree(line));
+                } catch (IOException e) {
+                    throw new UnreadableTableException(file.name() + " line " + number + " is not a JSON action: "
+                            + e.getMessage(), e);
+                }
+            }
+        }
+        return actions;
+    }
+
+    /** PROTOCOL.md "Schema Serialization Format": a struct type's fields, each with name, type and nullable. */
+    static List<ColumnDef> columns(String schemaString) throws UnreadableTableException {
+        JsonNode schema;
+        try {
+            schema = JSON.readTree(schemaString);
+        } catch (IOException e) {
+            throw new UnreadableTableException("The table's schemaString is not JSON: " + e.getMessage(), e);
+        }
+        List<ColumnDef> columns = new ArrayList<>();
+        for (JsonNode field : schema.path("fields")) {
+            columns.add(new ColumnDef(field.path("name").asText(), TableTypes.word(field.get("type")),
+                    field.path("nullable").asBoolean(true)));
+        }
+        return columns;
+    }
+
+    /** PROTOCOL.md "Per-file Statistics": {@code numRecords} in the add action's stats JSON. */
+    private static Long numRecords(String stats) {
+        if (stats == null) {
+            return null;
+        }
+        try {
+            JsonNode node = JSON.readTree(stats);
+            return node.hasNonNull("numRecords") ? node.get("numRecords").asLong() : null;
+        } catch (IOException e) {
+            return null;
+        }
+    }
+
+    static List<Map<String, Object>> columnMaps(List<ColumnDef> columns) {
+        List<Map<String, Object>> out = new ArrayList<>();
+        for (ColumnDef c : columns) {
+            Map<String, Object> m = new LinkedHashMap<>();
+            m.put("name", c.name());
+            m.put("type", c.dataType());
+            m.put("nullable", c.nullable());
+            out.add(m);
+        }
+        return out;
+    }
+}
