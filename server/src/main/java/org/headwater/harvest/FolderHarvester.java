@@ -472,8 +472,15 @@ public final class FolderHarvester {
             }
         }
 
-        /** The owners file's rules, turned into ownerships of this source's datasets (after analysis: views too). */
+        /**
+         * The owners file's rules, turned into ownerships of this source's datasets (after analysis: views
+         * too). Only local folders have one for now; an object store's would be read through the backend.
+         */
         void applyOwnersFile() {
+            Path root = backend.localRoot().orElse(null);
+            if (root == null) {
+                return;
+            }
             String fileUri = root.resolve(org.headwater.owners.OwnersFile.NAME).toUri().toString();
             org.headwater.owners.OwnersFile file;
             try {
