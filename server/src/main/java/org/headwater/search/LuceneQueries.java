@@ -29,9 +29,11 @@ import org.apache.lucene.util.QueryBuilder;
  * word's clause; the any-word query, the fallback, requires one.
  */
 final class LuceneQueries {
-    /** Fields searched for prefixes and typos: the ones whose words people half-type or misspell. */
-    private static final Map<String, Float> LOOSE_FIELDS = Map.of("name", 4.0f, "columns", 1.5f, "dataset", 0.2f,
-            "prose_ids", 1.0f, "tags", 1.5f, "owners", 1.0f);
+    /** Fields searched for prefixes: the ones whose words people half-type. */
+    private static final Map<String, Float> PREFIX_FIELDS = Map.of("name", 4.0f, "columns", 1.5f, "prose_ids", 1.0f,
+            "tags", 1.5f);
+    /** Fields searched for typos; few, because each costs an automaton per query. */
+    private static final Map<String, Float> FUZZY_FIELDS = Map.of("name", 4.0f, "columns", 1.5f, "prose_ids", 1.0f);
     private static final float PREFIX_SHARE = 0.25f;
     private static final float FUZZY_SHARE = 0.3f;
     private static final float EXACT_NAME_BOOST = 1000f;
@@ -135,11 +137,13 @@ final class LuceneQueries {
             }
         }
         int edits = editsFor(part);
-        for (Map.Entry<String, Float> f : LOOSE_FIELDS.entrySet()) {
-            if (part.length() >= 3 && !isNumber(part)) {
+        if (part.length() >= 3 && !isNumber(part)) {
+            for (Map.Entry<String, Float> f : PREFIX_FIELDS.entrySet()) {
                 alternatives.add(new BoostQuery(new PrefixQuery(new Term(f.getKey(), part)), f.getValue() * PREFIX_SHARE));
             }
-            if (edits > 0) {
+        }
+        if (edits > 0) {
+            for (Map.Entry<String, Float> f : FUZZY_FIELDS.entrySet()) {
                 alternatives.add(new BoostQuery(new FuzzyQuery(new Term(f.getKey(), part), edits, 1, 20, true),
                         f.getValue() * FUZZY_SHARE));
             }

@@ -43,8 +43,11 @@ final class Ranks {
      * times the number of datasets in the graph: 1 is the average.
      */
     static Ranks compute(SearchSource source) {
-        Map<Long, Integer> useCounts = source.uses();
-        List<long[]> edges = source.datasetEdges();
+        return of(source.uses(), source.datasetEdges());
+    }
+
+    /** Ranks from use counts by dataset id and (source, target) dataset edges. */
+    static Ranks of(Map<Long, Integer> useCounts, List<long[]> edges) {
         Map<Long, Integer> node = new HashMap<>();
         int[] from = new int[edges.size()];
         int[] to = new int[edges.size()];

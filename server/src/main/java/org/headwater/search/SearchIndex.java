@@ -81,7 +81,8 @@ public final class SearchIndex implements ChangeListener, AutoCloseable {
         this.directory = directory;
         this.source = new SearchSource(catalog);
         IndexWriterConfig config = new IndexWriterConfig(Documents.indexAnalyzer())
-                .setOpenMode(IndexWriterConfig.OpenMode.CREATE_OR_APPEND);
+                .setOpenMode(IndexWriterConfig.OpenMode.CREATE_OR_APPEND)
+                .setRAMBufferSizeMB(64);
         this.writer = new IndexWriter(directory, config);
         this.searchers = new SearcherManager(writer, null);
     }
@@ -386,6 +387,9 @@ public final class SearchIndex implements ChangeListener, AutoCloseable {
         UnifiedHighlighter highlighter = UnifiedHighlighter.builder(searcher, Documents.indexAnalyzer())
                 .withFormatter(new DefaultPassageFormatter("<mark>", "</mark>", " … ", true))
                 .withMaxLength(10_000)
+                // Prefix and typo queries would be re-run per document over an in-memory index, which costs more
+                // than the search itself; snippets mark whole words and stems.
+                .withHandleMultiTermQuery(false)
                 .build();
         int[] docs = new int[page.length];
         int[] passages = new int[Documents.SNIPPET_FIELDS.length];
