@@ -18,7 +18,7 @@ import picocli.CommandLine.Spec;
 /** {@code headwater search TEXT}: finds datasets, columns, scripts and owners. */
 @Command(name = "search", mixinStandardHelpOptions = true,
         description = {"Find datasets, columns, scripts and owners by words of their names, paths, columns,",
-                "descriptions, docstrings and figure titles. Quote a phrase (\"monthly summary\"); narrow with",
+                "descriptions, docstrings and figure titles. Quote a phrase ('\"monthly summary\"'); narrow with",
                 "field=value filters: kind, format, owner, tag, source (kind=column format=csv).",
                 "With --json, prints the same object as /api/search."})
 final class SearchCommand implements Callable<Integer> {
@@ -50,8 +50,8 @@ final class SearchCommand implements Callable<Integer> {
             throw new picocli.CommandLine.ParameterException(spec.commandLine(),
                     "--limit must be between 1 and " + SearchRequest.MAX_SIZE);
         }
-        // Words are joined back as typed; a phrase the shell unquoted is quoted again.
-        String text = String.join(" ", words.stream().map(w -> w.contains(" ") && !w.contains("=") ? "\"" + w + "\"" : w).toList());
+        // The shell has taken the outer quotes: a phrase is written '"ion balance"'.
+        String text = String.join(" ", words);
         SearchResult result;
         try (Catalog open = catalog.open()) {
             result = open.index().search(new SearchRequest(text, kind, 1, limit, explain));

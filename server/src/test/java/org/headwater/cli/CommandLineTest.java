@@ -46,7 +46,7 @@ class CommandLineTest {
         assertThat(b.get("scripts").asInt()).isEqualTo(a.get("scripts").asInt());
         assertThat(b.get("changes").asInt()).isZero();
         assertThat(search.exit()).isZero();
-        assertThat(JSON.readTree(search.out()).get(0).get("name").asText()).isEqualTo("lab/nitrate_results_2025.csv");
+        assertThat(JSON.readTree(search.out()).get("hits").get(0).get("name").asText()).isEqualTo("lab/nitrate_results_2025.csv");
     }
 
     @Test
