@@ -58,9 +58,21 @@ final class LuceneQueries {
         }
         BooleanQuery.Builder query = new BooleanQuery.Builder();
         List<String> parts = wordParts(text.words());
-        Occur occur = mode == Mode.ALL_WORDS ? Occur.MUST : Occur.SHOULD;
-        for (String part : parts) {
-            query.add(wordClause(part), occur);
+        if (mode == Mode.ALL_WORDS) {
+            for (String part : parts) {
+                query.add(wordClause(part), Occur.MUST);
+            }
+        } else {
+            // Any typed word will do, but the parts of one identifier (merge_lab_results) still go together.
+            for (String word : text.words()) {
+                List<String> own = wordParts(List.of(word)).stream().filter(parts::contains).toList();
+                if (own.isEmpty()) {
+                    continue;
+                }
+                BooleanQuery.Builder together = new BooleanQuery.Builder();
+                own.forEach(part -> together.add(wordClause(part), Occur.MUST));
+                query.add(together.build(), Occur.SHOULD);
+            }
         }
         for (String word : text.words()) {
             // A whole identifier as typed (nitrate_mg_l) is indexed unsplit too: matching it is worth extra.

@@ -298,7 +298,7 @@ public final class SearchIndex implements ChangeListener, AutoCloseable {
                 List<ScoreDoc> ranked = new ArrayList<>(List.of(found.topDocs().scoreDocs));
                 int allWordHits = ranked.size();
                 Query textQuery = allWords;
-                if (allWords != null && ranked.size() < depth && QUERIES.wordParts(text.words()).size() > 1) {
+                if (allWords != null && ranked.size() < depth && text.words().size() > 1) {
                     // All words preferred: documents with only some of the words follow those with all of them.
                     Query anyWord = QUERIES.text(text, LuceneQueries.Mode.ANY_WORD);
                     FacetsCollectorManager.FacetsResult more = run(searcher, anyWord, filter, current, depth);
