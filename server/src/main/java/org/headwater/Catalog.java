@@ -52,6 +52,10 @@ public final class Catalog implements AutoCloseable {
         this.lineage = LineageGraph.load(store);
         ingestor.addListener(index);
         ingestor.addListener(lineage);
+        // The search's freshness facet shows the states the checks last recorded.
+        var recorded = new org.headwater.checks.RecordedStates(store);
+        ingestor.addListener(recorded);
+        index.useFreshness(recorded);
     }
 
     /** Opens (creating if needed) the catalog kept in {@code dataDir}: {@code catalog.mv.db} and {@code index/}. */

@@ -1,19 +1,18 @@
 package org.headwater.http;
 
 import io.javalin.http.Context;
-import java.util.List;
-import org.headwater.search.SearchHit;
+import org.headwater.search.QuerySyntaxException;
+import org.headwater.search.SearchRequest;
 
-/** {@code /api/search}: words in, ranked datasets and scripts out. */
+/**
+ * {@code /api/search?q=&kind=&page=&size=&explain=}: words in the query syntax in; one page of ranked hits,
+ * the total, facet counts and a "did you mean" suggestion out. {@code limit} is kept as another name for size.
+ */
 final class SearchRoutes {
     private final CatalogHolder catalog;
 
     SearchRoutes(CatalogHolder catalog) {
         this.catalog = catalog;
-    }
-
-    /** The answer of a search. */
-    record Result(String query, List<SearchHit> hits) {
     }
 
     void search(Context ctx) {
@@ -24,7 +23,22 @@ final class SearchRoutes {
         if (q.length() > 1000) {
             throw ApiError.badRequest("The query is longer than 1000 characters");
         }
-        int limit = Params.intParam(ctx, "limit", 20, 1, 200);
-        ctx.json(new Result(q, catalog.get().index().search(q, Params.optional(ctx, "kind"), limit)));
+        int size = Params.intParam(ctx, "size", Params.intParam(ctx, "limit", 20, 1, SearchRequest.MAX_SIZE), 1,
+                SearchRequest.MAX_SIZE);
+        int page = Params.intParam(ctx, "page", 1, 1, SearchRequest.MAX_DEPTH);
+        if ((long) page * size > SearchRequest.MAX_DEPTH) {
+            throw ApiError.badRequest("Pages reach no deeper than hit " + SearchRequest.MAX_DEPTH + ": page × size is "
+                    + (long) page * size);
+        }
+        String explain = Params.optional(ctx, "explain");
+        if (explain != null && !explain.equals("true") && !explain.equals("false")) {
+            throw ApiError.badRequest("Parameter 'explain' must be true or false");
+        }
+        try {
+            ctx.json(catalog.get().index().search(new SearchRequest(q, Params.optional(ctx, "kind"), page, size,
+                    "true".equals(explain))));
+        } catch (QuerySyntaxException e) {
+            throw ApiError.badRequest(e.getMessage());
+        }
     }
 }

@@ -20,19 +20,26 @@ public final class IdentifierAnalyzer extends Analyzer {
     private static final Pattern SEPARATORS = Pattern.compile("[^\\p{L}\\p{N}_.\\-]+");
 
     private final boolean keepOriginal;
+    private final boolean stem;
 
-    private IdentifierAnalyzer(boolean keepOriginal) {
+    private IdentifierAnalyzer(boolean keepOriginal, boolean stem) {
         this.keepOriginal = keepOriginal;
+        this.stem = stem;
+    }
+
+    /** Word parts reduced to their English (Porter) stems, for matching names against inflected words. */
+    public static IdentifierAnalyzer stemming() {
+        return new IdentifierAnalyzer(false, true);
     }
 
     /** For documents: word parts plus the whole identifier. */
     public static IdentifierAnalyzer forIndexing() {
-        return new IdentifierAnalyzer(true);
+        return new IdentifierAnalyzer(true, false);
     }
 
     /** For queries: word parts only, so {@code nitrateMgL} asks for nitrate, mg and l. */
     public static IdentifierAnalyzer forQueries() {
-        return new IdentifierAnalyzer(false);
+        return new IdentifierAnalyzer(false, false);
     }
 
     @Override
@@ -53,6 +60,9 @@ public final class IdentifierAnalyzer extends Analyzer {
         }
         stream = new LowerCaseFilter(stream);
         stream = new ASCIIFoldingFilter(stream);
+        if (stem) {
+            stream = new org.apache.lucene.analysis.en.PorterStemFilter(stream);
+        }
         return new TokenStreamComponents(tokenizer, stream);
     }
 

@@ -1,73 +1,88 @@
 package org.headwater.search;
 
 import java.io.IOException;
-import java.io.StringReader;
 import java.io.UncheckedIOException;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.HashSet;
+import java.util.LinkedHashMap;
 import java.util.List;
-import java.util.Locale;
 import java.util.Map;
 import java.util.Set;
-import org.apache.lucene.analysis.Analyzer;
-import org.apache.lucene.analysis.TokenStream;
-import org.apache.lucene.analysis.tokenattributes.CharTermAttribute;
+import java.util.TreeMap;
+import java.util.TreeSet;
 import org.apache.lucene.document.Document;
-import org.apache.lucene.document.Field;
-import org.apache.lucene.document.StoredField;
-import org.apache.lucene.document.StringField;
-import org.apache.lucene.document.TextField;
+import org.apache.lucene.facet.FacetResult;
+import org.apache.lucene.facet.FacetsCollector;
+import org.apache.lucene.facet.FacetsCollectorManager;
+import org.apache.lucene.facet.LabelAndValue;
+import org.apache.lucene.facet.sortedset.DefaultSortedSetDocValuesReaderState;
+import org.apache.lucene.facet.sortedset.SortedSetDocValuesFacetCounts;
+import org.apache.lucene.index.DocValues;
+import org.apache.lucene.index.IndexReader;
 import org.apache.lucene.index.IndexWriter;
 import org.apache.lucene.index.IndexWriterConfig;
+import org.apache.lucene.index.NumericDocValues;
 import org.apache.lucene.index.Term;
-import org.apache.lucene.search.BooleanClause.Occur;
-import org.apache.lucene.search.BooleanQuery;
-import org.apache.lucene.search.BoostQuery;
+import org.apache.lucene.queries.function.FunctionScoreQuery;
+import org.apache.lucene.search.DocIdSetIterator;
+import org.apache.lucene.search.Explanation;
 import org.apache.lucene.search.IndexSearcher;
+import org.apache.lucene.search.MatchAllDocsQuery;
 import org.apache.lucene.search.Query;
 import org.apache.lucene.search.ScoreDoc;
 import org.apache.lucene.search.SearcherManager;
 import org.apache.lucene.search.TermQuery;
 import org.apache.lucene.search.TopDocs;
+import org.apache.lucene.search.spell.DirectSpellChecker;
+import org.apache.lucene.search.spell.SuggestMode;
+import org.apache.lucene.search.spell.SuggestWord;
+import org.apache.lucene.search.uhighlight.DefaultPassageFormatter;
+import org.apache.lucene.search.uhighlight.UnifiedHighlighter;
 import org.apache.lucene.store.ByteBuffersDirectory;
 import org.apache.lucene.store.Directory;
 import org.apache.lucene.store.FSDirectory;
 import org.headwater.ingest.Change;
 import org.headwater.ingest.ChangeListener;
 import org.headwater.store.CatalogReader;
-import org.headwater.store.Views.IndexEntry;
+import org.headwater.store.SearchSource;
+import org.headwater.store.SearchSource.DatasetDoc;
+import org.headwater.store.SearchSource.ScriptDoc;
+import org.headwater.store.Views.ColumnView;
 import org.slf4j.Logger;
 import org.slf4j.LoggerFactory;
 
 /**
- * The Lucene index of datasets and scripts. It listens to the ingestion path and stores, with each
- * commit, the change-log sequence number it has absorbed; at open it catches up from the change log,
- * and rebuilds from the store when it is missing, damaged or ahead of the store.
+ * The Lucene index of datasets, their columns, scripts and owners. It listens to the ingestion path and
+ * stores, with each commit, the change-log sequence number it has absorbed; at open it catches up from the
+ * change log, and rebuilds from the store when it is missing, damaged or ahead of the store.
  */
 public final class SearchIndex implements ChangeListener, AutoCloseable {
     private static final Logger LOG = LoggerFactory.getLogger(SearchIndex.class);
     static final String SEQ_KEY = "headwater.change_seq";
-
-    /** Text fields searched, with the weight a match in each carries. */
-    static final Map<String, Float> FIELD_WEIGHTS = Map.of(
-            "name", 4.0f,
-            "columns", 2.0f,
-            "tags", 2.0f,
-            "description", 1.5f);
+    /** Dataset and column documents carry their dataset's id here, so a dataset's documents leave together. */
+    private static final String OF_DATASET = "of_dataset";
+    private static final int FACET_VALUES = 50;
+    private static final int SNIPPET_LENGTH = 240;
 
     private final Directory directory;
     private final IndexWriter writer;
     private final SearcherManager searchers;
-    private final CatalogReader catalog;
-    private final Analyzer queryAnalyzer = IdentifierAnalyzer.forQueries();
+    private final SearchSource source;
+    private static final LuceneQueries QUERIES = new LuceneQueries();
+    private final DirectSpellChecker spelling = new DirectSpellChecker();
+    private volatile Ranks ranks = Ranks.NONE;
+    private volatile boolean ranksStale = true;
+    private volatile FreshnessProvider freshness = FreshnessProvider.UNKNOWN;
+    private DefaultSortedSetDocValuesReaderState facetState;
 
     private SearchIndex(Directory directory, CatalogReader catalog) throws IOException {
         this.directory = directory;
-        this.catalog = catalog;
-        IndexWriterConfig config = new IndexWriterConfig(IdentifierAnalyzer.forIndexing())
-                .setOpenMode(IndexWriterConfig.OpenMode.CREATE_OR_APPEND);
+        this.source = new SearchSource(catalog);
+        IndexWriterConfig config = new IndexWriterConfig(Documents.indexAnalyzer())
+                .setOpenMode(IndexWriterConfig.OpenMode.CREATE_OR_APPEND)
+                .setRAMBufferSizeMB(64);
         this.writer = new IndexWriter(directory, config);
         this.searchers = new SearcherManager(writer, null);
     }
@@ -103,6 +118,11 @@ public final class SearchIndex implements ChangeListener, AutoCloseable {
         }
     }
 
+    /** Sets where the freshness facet comes from; until then every dataset is {@code unknown}. */
+    public void useFreshness(FreshnessProvider provider) {
+        this.freshness = java.util.Objects.requireNonNull(provider, "provider");
+    }
+
     /** The change-log sequence number the index has absorbed. */
     public synchronized long absorbedSeq() {
         Map<String, String> data = new java.util.HashMap<>();
@@ -115,7 +135,7 @@ public final class SearchIndex implements ChangeListener, AutoCloseable {
 
     private synchronized void catchUp() throws IOException {
         long absorbed = absorbedSeq();
-        long last = catalog.lastChangeSeq();
+        long last = source.reader().lastChangeSeq();
         if (absorbed == last) {
             return;
         }
@@ -124,33 +144,34 @@ public final class SearchIndex implements ChangeListener, AutoCloseable {
             rebuild();
             return;
         }
-        Set<Long> datasets = new HashSet<>();
-        Set<Long> scripts = new HashSet<>();
-        for (Map.Entry<String, Long> changed : catalog.changedSince(absorbed)) {
-            sortInto(changed.getKey(), changed.getValue(), datasets, scripts);
+        Changed changed = new Changed();
+        for (Map.Entry<String, Long> entry : source.reader().changedSince(absorbed)) {
+            changed.add(entry.getKey(), entry.getValue());
         }
-        LOG.info("Search index catching up: {} datasets, {} scripts changed since sequence {}", datasets.size(),
-                scripts.size(), absorbed);
-        write(datasets, scripts, last);
+        LOG.info("Search index catching up: {} datasets, {} scripts, {} edges changed since sequence {}",
+                changed.datasets.size(), changed.scripts.size(), changed.edges.size(), absorbed);
+        write(changed, last);
     }
 
     /** Throws the index away and builds it again from the store. */
     public synchronized void rebuild() {
         try {
-            long seq = catalog.lastChangeSeq();
+            long seq = source.reader().lastChangeSeq();
             writer.deleteAll();
-            List<Long> datasets = catalog.presentDatasetIds();
+            List<Long> datasets = source.reader().presentDatasetIds();
             for (int from = 0; from < datasets.size(); from += 1000) {
-                for (IndexEntry entry : catalog.datasetEntries(datasets.subList(from, Math.min(datasets.size(), from + 1000)))) {
-                    writer.addDocument(document(entry));
+                for (DatasetDoc doc : source.datasets(datasets.subList(from, Math.min(datasets.size(), from + 1000)))) {
+                    addDataset(doc);
                 }
             }
-            List<Long> scripts = catalog.presentScriptIds();
+            List<Long> scripts = source.presentScriptIds();
             for (int from = 0; from < scripts.size(); from += 1000) {
-                for (IndexEntry entry : catalog.scriptEntries(scripts.subList(from, Math.min(scripts.size(), from + 1000)))) {
-                    writer.addDocument(document(entry));
+                for (ScriptDoc doc : source.scripts(scripts.subList(from, Math.min(scripts.size(), from + 1000)))) {
+                    writer.addDocument(build(Documents.script(doc, ScriptProse.of(doc.entry().uri()))));
                 }
             }
+            writeOwners();
+            ranksStale = true;
             commit(seq);
         } catch (IOException e) {
             throw new SearchException("Rebuilding the search index failed", e);
@@ -159,44 +180,89 @@ public final class SearchIndex implements ChangeListener, AutoCloseable {
 
     @Override
     public synchronized void committed(List<Change> changes) {
-        Set<Long> datasets = new HashSet<>();
-        Set<Long> scripts = new HashSet<>();
+        Changed changed = new Changed();
         long seq = 0;
         for (Change change : changes) {
-            sortInto(change.entity(), change.entityId(), datasets, scripts);
+            changed.add(change.entity(), change.entityId());
             seq = Math.max(seq, change.seq());
         }
         try {
-            write(datasets, scripts, Math.max(seq, absorbedSeq()));
+            write(changed, Math.max(seq, absorbedSeq()));
         } catch (IOException e) {
             throw new UncheckedIOException(e);
         }
     }
 
-    private static void sortInto(String entity, long id, Set<Long> datasets, Set<Long> scripts) {
-        if (entity.equals(Change.DATASET)) {
-            datasets.add(id);
-        } else if (entity.equals(Change.SCRIPT)) {
-            scripts.add(id);
+    /** What a batch of changes touched, sorted by entity. */
+    private static final class Changed {
+        final Set<Long> datasets = new HashSet<>();
+        final Set<Long> scripts = new HashSet<>();
+        final Set<Long> edges = new HashSet<>();
+
+        void add(String entity, long id) {
+            switch (entity) {
+                case Change.DATASET -> datasets.add(id);
+                case Change.SCRIPT -> scripts.add(id);
+                case Change.EDGE -> edges.add(id);
+                default -> {
+                    // Runs and anything newer change use counts only; the ranks are recomputed below.
+                }
+            }
         }
     }
 
-    private void write(Set<Long> datasets, Set<Long> scripts, long seq) throws IOException {
-        replace("dataset", datasets, catalog.datasetEntries(datasets));
-        replace("script", scripts, catalog.scriptEntries(scripts));
+    private void write(Changed changed, long seq) throws IOException {
+        // A script's reads and writes appear in the documents of the datasets at both ends.
+        Set<Long> datasets = new HashSet<>(changed.datasets);
+        datasets.addAll(source.edgeEnds(changed.edges));
+        datasets.addAll(source.referencedBy(changed.scripts));
+        Set<Long> remaining = new HashSet<>(datasets);
+        for (DatasetDoc doc : source.datasets(datasets)) {
+            writer.deleteDocuments(new Term(OF_DATASET, Long.toString(doc.entry().id())));
+            addDataset(doc);
+            remaining.remove(doc.entry().id());
+        }
+        for (long gone : remaining) {
+            writer.deleteDocuments(new Term(OF_DATASET, Long.toString(gone)));
+        }
+        Set<Long> scriptsLeft = new HashSet<>(changed.scripts);
+        for (ScriptDoc doc : source.scripts(changed.scripts)) {
+            writer.updateDocument(new Term(Documents.KEY, Documents.key("script", doc.entry().id())),
+                    build(Documents.script(doc, ScriptProse.of(doc.entry().uri()))));
+            scriptsLeft.remove(doc.entry().id());
+        }
+        for (long gone : scriptsLeft) {
+            writer.deleteDocuments(new Term(Documents.KEY, Documents.key("script", gone)));
+        }
+        if (!changed.datasets.isEmpty()) {
+            writeOwners();
+        }
+        ranksStale = true;
         commit(seq);
     }
 
-    /** Re-indexes the given ids; an id with no entry is no longer present and leaves the index. */
-    private void replace(String family, Set<Long> ids, List<IndexEntry> entries) throws IOException {
-        Set<Long> remaining = new HashSet<>(ids);
-        for (IndexEntry entry : entries) {
-            writer.updateDocument(new Term("key", key(family, entry.id())), document(entry));
-            remaining.remove(entry.id());
+    private void addDataset(DatasetDoc doc) throws IOException {
+        String of = Long.toString(doc.entry().id());
+        Document dataset = Documents.dataset(doc);
+        dataset.add(new org.apache.lucene.document.StringField(OF_DATASET, of, org.apache.lucene.document.Field.Store.NO));
+        writer.addDocument(build(dataset));
+        for (ColumnView column : doc.columns()) {
+            Document c = Documents.column(doc, column);
+            c.add(new org.apache.lucene.document.StringField(OF_DATASET, of, org.apache.lucene.document.Field.Store.NO));
+            writer.addDocument(build(c));
         }
-        for (long gone : remaining) {
-            writer.deleteDocuments(new Term("key", key(family, gone)));
+    }
+
+    /** Owner documents list the datasets each owns; there are few owners, so they are rewritten together. */
+    private void writeOwners() throws IOException {
+        writer.deleteDocuments(new Term(Documents.FAMILY, "owner"));
+        for (SearchSource.OwnerDoc owner : source.owners()) {
+            writer.addDocument(build(Documents.owner(owner)));
         }
+    }
+
+    private static Document build(Document doc) throws IOException {
+        return Documents.FACETS_CONFIG.build(doc);
     }
 
     private void commit(long seq) throws IOException {
@@ -205,93 +271,292 @@ public final class SearchIndex implements ChangeListener, AutoCloseable {
         searchers.maybeRefreshBlocking();
     }
 
-    private static String key(String family, long id) {
-        return family + ":" + id;
-    }
-
-    private static Document document(IndexEntry entry) {
-        String family = entry.kind().equals("script") ? "script" : "dataset";
-        Document doc = new Document();
-        doc.add(new StringField("key", key(family, entry.id()), Field.Store.YES));
-        doc.add(new StringField("family", family, Field.Store.NO));
-        doc.add(new StringField("kind", entry.kind(), Field.Store.YES));
-        doc.add(new StoredField("id", entry.id()));
-        doc.add(new StoredField("uri", entry.uri()));
-        doc.add(new TextField("name", entry.name(), Field.Store.YES));
-        doc.add(new StringField("name_exact", exactForm(entry.name()), Field.Store.NO));
-        doc.add(new StringField("name_exact", exactForm(baseName(entry.name())), Field.Store.NO));
-        // The URI is stored but not searched: the folders above a workspace (home, work, …) are noise.
-        doc.add(new TextField("columns", String.join("\n", entry.columns()), Field.Store.NO));
-        if (entry.description() != null) {
-            doc.add(new TextField("description", entry.description(), Field.Store.NO));
-        }
-        doc.add(new TextField("tags", String.join("\n", entry.tags()), Field.Store.NO));
-        if (entry.format() != null) {
-            doc.add(new StringField("format", entry.format(), Field.Store.YES));
-        }
-        if (entry.source() != null) {
-            doc.add(new StringField("source", entry.source(), Field.Store.YES));
-        }
-        return doc;
-    }
-
-    private static String exactForm(String name) {
-        return name.toLowerCase(Locale.ROOT).trim();
-    }
-
-    private static String baseName(String name) {
-        String file = name.substring(name.lastIndexOf('/') + 1);
-        int dot = file.lastIndexOf('.');
-        return dot > 0 ? file.substring(0, dot) : file;
+    /** The first {@code limit} hits for {@code text}, optionally of one kind. */
+    public List<SearchHit> search(String text, String kind, int limit) {
+        return search(SearchRequest.of(text, kind, Math.min(limit, SearchRequest.MAX_SIZE))).hits();
     }
 
     /**
-     * Finds datasets and scripts matching the words of {@code text}. Every word is looked for in every
-     * text field with that field's weight; documents matching more words, and datasets over scripts,
-     * rank higher; an exact name match ranks first.
+     * Runs a search: all words required first, any word when nothing has them all; hits ordered by text
+     * relevance times use and centrality, exact name matches first; facets counted over all matches.
      *
-     * @param kind only this kind ({@code file}, {@code figure}, {@code script}, …), or null for all
+     * @throws QuerySyntaxException when the text does not follow the query syntax
      */
-    public List<SearchHit> search(String text, String kind, int limit) {
-        List<String> words = words(text);
-        if (words.isEmpty()) {
-            return List.of();
-        }
-        BooleanQuery.Builder anyWord = new BooleanQuery.Builder();
-        for (String word : words) {
-            for (Map.Entry<String, Float> field : FIELD_WEIGHTS.entrySet()) {
-                anyWord.add(new BoostQuery(new TermQuery(new Term(field.getKey(), word)), field.getValue()), Occur.SHOULD);
-            }
-        }
-        anyWord.add(new BoostQuery(new TermQuery(new Term("name_exact", exactForm(text))), 20f), Occur.SHOULD);
-        BooleanQuery.Builder query = new BooleanQuery.Builder()
-                .add(anyWord.build(), Occur.MUST)
-                .add(new BoostQuery(new TermQuery(new Term("family", "dataset")), 0.5f), Occur.SHOULD);
-        if (kind != null) {
-            query.add(new TermQuery(new Term("kind", kind)), Occur.FILTER);
-        }
-        return run(query.build(), limit);
-    }
-
-    private List<SearchHit> run(Query query, int limit) {
+    public SearchResult search(SearchRequest request) {
+        QueryText text = QueryText.parse(request.text());
+        Ranks current = currentRanks();
+        Query filter = QUERIES.filters(text, request.kind());
         try {
             IndexSearcher searcher = searchers.acquire();
             try {
-                TopDocs top = searcher.search(query, Math.max(1, limit));
-                List<SearchHit> hits = new ArrayList<>(top.scoreDocs.length);
-                var stored = searcher.storedFields();
-                for (ScoreDoc sd : top.scoreDocs) {
-                    Document d = stored.document(sd.doc);
-                    hits.add(new SearchHit(d.get("kind"), d.getField("id").numericValue().longValue(), d.get("name"),
-                            d.get("uri"), d.get("format"), d.get("source"), sd.score));
+                Query allWords = QUERIES.text(text, LuceneQueries.Mode.ALL_WORDS);
+                if (allWords == null && text.hasText()) {
+                    return empty(request, searcher, text);
                 }
-                return hits;
+                int depth = request.page() * request.size();
+                FacetsCollectorManager.FacetsResult found = run(searcher, allWords, filter, current, depth);
+                List<ScoreDoc> ranked = new ArrayList<>(List.of(found.topDocs().scoreDocs));
+                int allWordHits = ranked.size();
+                Query textQuery = allWords;
+                if (allWords != null && ranked.size() < depth && text.words().size() > 1) {
+                    // All words preferred: documents with only some of the words follow those with all of them.
+                    Query anyWord = QUERIES.text(text, LuceneQueries.Mode.ANY_WORD);
+                    FacetsCollectorManager.FacetsResult more = run(searcher, anyWord, filter, current, depth);
+                    Set<Integer> seen = new HashSet<>();
+                    ranked.forEach(sd -> seen.add(sd.doc));
+                    for (ScoreDoc sd : more.topDocs().scoreDocs) {
+                        if (ranked.size() < depth && seen.add(sd.doc)) {
+                            ranked.add(sd);
+                        }
+                    }
+                    found = more;
+                    textQuery = anyWord;
+                }
+                long total = 0;
+                for (FacetsCollector.MatchingDocs m : found.facetsCollector().getMatchingDocs()) {
+                    total += m.totalHits;
+                }
+                int from = Math.min(ranked.size(), (request.page() - 1) * request.size());
+                List<SearchHit> hits = new ArrayList<>();
+                for (int i = from; i < ranked.size(); i++) {
+                    String mode = i < allWordHits ? "all words" : "any word";
+                    hits.add(hit(searcher, ranked.get(i), textQuery, request.explain() ? mode : null, current));
+                }
+                hits = withSnippets(searcher, hits, ranked.subList(from, ranked.size()), textQuery);
+                return new SearchResult(request.text(), total, request.page(), request.size(), hits,
+                        facets(searcher, found.facetsCollector()), suggestion(searcher, text));
             } finally {
                 searchers.release(searcher);
             }
         } catch (IOException e) {
             throw new SearchException("Search failed", e);
         }
+    }
+
+    private SearchResult empty(SearchRequest request, IndexSearcher searcher, QueryText text) throws IOException {
+        return new SearchResult(request.text(), 0, request.page(), request.size(), List.of(), emptyFacets(),
+                suggestion(searcher, text));
+    }
+
+    private static FacetsCollectorManager.FacetsResult run(IndexSearcher searcher, Query textQuery, Query filter,
+            Ranks ranks, int depth) throws IOException {
+        Query query = QUERIES.combined(textQuery, filter);
+        Query ranked = FunctionScoreQuery.boostByValue(query, ranks.asValues());
+        return FacetsCollectorManager.search(searcher, ranked, depth, new FacetsCollectorManager());
+    }
+
+
+    private Ranks currentRanks() {
+        if (ranksStale) {
+            synchronized (this) {
+                if (ranksStale) {
+                    ranksStale = false;
+                    ranks = Ranks.compute(source);
+                }
+            }
+        }
+        return ranks;
+    }
+
+    private SearchHit hit(IndexSearcher searcher, ScoreDoc sd, Query textQuery, String explainMode, Ranks ranks)
+            throws IOException {
+        Document d = searcher.storedFields().document(sd.doc);
+        String name = d.get("display") != null ? d.get("display") : d.get("name");
+        HitExplanation explanation = explainMode == null ? null : explain(searcher, sd.doc, textQuery, explainMode, ranks);
+        return new SearchHit(d.get("kind"), d.getField("id").numericValue().longValue(), name, d.get("uri"),
+                d.get("format"), d.get("source"), sd.score, null, explanation);
+    }
+
+    private List<SearchHit> withSnippets(IndexSearcher searcher, List<SearchHit> hits, List<ScoreDoc> docs,
+            Query textQuery) throws IOException {
+        Map<Integer, String> snippets = snippets(searcher, docs.toArray(new ScoreDoc[0]), textQuery);
+        List<SearchHit> out = new ArrayList<>(hits.size());
+        for (int i = 0; i < hits.size(); i++) {
+            SearchHit h = hits.get(i);
+            out.add(new SearchHit(h.kind(), h.id(), h.name(), h.uri(), h.format(), h.source(), h.score(),
+                    snippets.get(docs.get(i).doc), h.explain()));
+        }
+        return out;
+    }
+
+    private Map<Integer, String> snippets(IndexSearcher searcher, ScoreDoc[] page, Query textQuery) throws IOException {
+        Map<Integer, String> out = new java.util.HashMap<>();
+        if (textQuery == null || page.length == 0) {
+            return out;
+        }
+        UnifiedHighlighter highlighter = UnifiedHighlighter.builder(searcher, Documents.indexAnalyzer())
+                .withFormatter(new DefaultPassageFormatter("<mark>", "</mark>", " … ", true))
+                .withMaxLength(10_000)
+                // Prefix and typo queries would be re-run per document over an in-memory index, which costs more
+                // than the search itself; snippets mark whole words and stems.
+                .withHandleMultiTermQuery(false)
+                .build();
+        int[] docs = new int[page.length];
+        int[] passages = new int[Documents.SNIPPET_FIELDS.length];
+        for (int i = 0; i < page.length; i++) {
+            docs[i] = page[i].doc;
+        }
+        java.util.Arrays.fill(passages, 1);
+        Map<String, String[]> byField = highlighter.highlightFields(Documents.SNIPPET_FIELDS, textQuery, docs, passages);
+        for (int i = 0; i < docs.length; i++) {
+            for (String field : Documents.SNIPPET_FIELDS) {
+                String[] values = byField.get(field);
+                if (values != null && values[i] != null && values[i].contains("<mark>")) {
+                    out.put(docs[i], shorten(field.equals("columns") ? markedLines(values[i]) : values[i].strip()));
+                    break;
+                }
+            }
+        }
+        return out;
+    }
+
+    /** Of a list of columns, one a line, the ones with a match. */
+    private static String markedLines(String text) {
+        return String.join(", ", text.lines().filter(l -> l.contains("<mark>")).map(String::strip).toList());
+    }
+
+    /** Caps a snippet's length without cutting inside a tag or an escape. */
+    private static String shorten(String snippet) {
+        if (snippet.length() <= SNIPPET_LENGTH) {
+            return snippet;
+        }
+        int end = snippet.lastIndexOf(' ', SNIPPET_LENGTH);
+        int open = snippet.lastIndexOf("<mark>", end);
+        int close = snippet.lastIndexOf("</mark>", end);
+        if (open > close) {
+            end = snippet.indexOf("</mark>", open) + "</mark>".length();
+        }
+        int amp = snippet.lastIndexOf('&', end);
+        if (amp >= 0 && snippet.indexOf(';', amp) >= end) {
+            end = amp;
+        }
+        return end <= 0 ? snippet : snippet.substring(0, end) + " …";
+    }
+
+    private HitExplanation explain(IndexSearcher searcher, int doc, Query textQuery, String mode, Ranks ranks)
+            throws IOException {
+        Document d = searcher.storedFields().document(doc);
+        String kind = d.get("kind");
+        long id = d.getField("id").numericValue().longValue();
+        boolean datasetRanked = !kind.equals("script") && !kind.equals("owner") && !kind.equals("team");
+        int family = switch (kind) {
+            case "column" -> Documents.COLUMN;
+            case "script" -> Documents.SCRIPT;
+            case "owner", "team" -> Documents.OWNER;
+            default -> Documents.DATASET;
+        };
+        double text = 0;
+        boolean exact = false;
+        List<String> matched = new ArrayList<>();
+        if (textQuery != null) {
+            Explanation e = searcher.explain(textQuery, doc);
+            text = e.getValue().doubleValue();
+            collectMatches(e, matched);
+            exact = matched.contains(Documents.NAME_EXACT);
+            matched.remove(Documents.NAME_EXACT);
+        }
+        long rankId = datasetRanked ? id : 0;
+        return new HitExplanation(mode, text, exact, ranks.uses(rankId), ranks.centrality(rankId),
+                ranks.factor(family, rankId), List.copyOf(new TreeSet<>(matched)));
+    }
+
+    private static void collectMatches(Explanation e, List<String> out) {
+        String description = e.getDescription();
+        if (description.startsWith("weight(") && e.isMatch()) {
+            int space = description.indexOf(" in ");
+            String term = description.substring("weight(".length(), space < 0 ? description.length() : space);
+            // Fuzzy and prefix rewrites name their field and term the same way.
+            out.add(term.replaceFirst("^\\(", ""));
+        } else if (description.contains(Documents.NAME_EXACT + ":") && e.isMatch()) {
+            out.add(Documents.NAME_EXACT);
+        } else if (description.startsWith("ConstantScore(") && e.isMatch()) {
+            out.add(description.substring("ConstantScore(".length(), description.length() - 1));
+        }
+        for (Explanation detail : e.getDetails()) {
+            collectMatches(detail, out);
+        }
+    }
+
+    private Map<String, Map<String, Integer>> facets(IndexSearcher searcher, FacetsCollector collector)
+            throws IOException {
+        Map<String, Map<String, Integer>> out = emptyFacets();
+        DefaultSortedSetDocValuesReaderState state = facetState(searcher.getIndexReader());
+        if (state != null) {
+            SortedSetDocValuesFacetCounts counts = new SortedSetDocValuesFacetCounts(state, collector);
+            for (String dim : Documents.FACETS) {
+                FacetResult result = counts.getTopChildren(FACET_VALUES, dim);
+                if (result != null) {
+                    for (LabelAndValue lv : result.labelValues) {
+                        out.get(dim).put(lv.label, lv.value.intValue());
+                    }
+                }
+            }
+        }
+        Map<String, Integer> fresh = out.get("freshness");
+        FreshnessProvider provider = freshness;
+        for (FacetsCollector.MatchingDocs m : collector.getMatchingDocs()) {
+            NumericDocValues families = DocValues.getNumeric(m.context.reader(), Documents.FAMILY_CODE);
+            NumericDocValues ids = DocValues.getNumeric(m.context.reader(), Documents.RANK_ID);
+            DocIdSetIterator docs = m.bits.iterator();
+            for (int doc = docs.nextDoc(); doc != DocIdSetIterator.NO_MORE_DOCS; doc = docs.nextDoc()) {
+                if (families.advanceExact(doc) && families.longValue() == Documents.DATASET && ids.advanceExact(doc)) {
+                    fresh.merge(provider.stateOf(ids.longValue()), 1, Integer::sum);
+                }
+            }
+        }
+        return out;
+    }
+
+    private static Map<String, Map<String, Integer>> emptyFacets() {
+        Map<String, Map<String, Integer>> out = new LinkedHashMap<>();
+        for (String dim : Documents.FACETS) {
+            out.put(dim, new LinkedHashMap<>());
+        }
+        out.put("freshness", new TreeMap<>());
+        return out;
+    }
+
+    private synchronized DefaultSortedSetDocValuesReaderState facetState(IndexReader reader) throws IOException {
+        if (facetState == null || facetState.getReader() != reader) {
+            try {
+                facetState = new DefaultSortedSetDocValuesReaderState(reader, Documents.FACETS_CONFIG);
+            } catch (IllegalArgumentException emptyIndex) {
+                // An index without documents has no facet field yet.
+                return null;
+            }
+        }
+        return facetState;
+    }
+
+    /**
+     * "Did you mean": each word that occurs in no document is replaced by the closest word that does (at
+     * most two edits away); null when every word occurs or nothing close exists.
+     */
+    private String suggestion(IndexSearcher searcher, QueryText text) throws IOException {
+        IndexReader reader = searcher.getIndexReader();
+        boolean changed = false;
+        List<String> out = new ArrayList<>();
+        for (String word : text.words()) {
+            String lower = word.toLowerCase(java.util.Locale.ROOT);
+            Term term = new Term(Documents.WORDS, lower);
+            if (lower.length() >= 4 && reader.docFreq(term) == 0) {
+                SuggestWord[] similar = spelling.suggestSimilar(term, 1, reader, SuggestMode.SUGGEST_WHEN_NOT_IN_INDEX);
+                if (similar.length > 0) {
+                    out.add(similar[0].string);
+                    changed = true;
+                    continue;
+                }
+            }
+            out.add(word);
+        }
+        if (!changed) {
+            return null;
+        }
+        for (String phrase : text.phrases()) {
+            out.add("\"" + phrase + "\"");
+        }
+        text.filters().forEach((field, values) -> values.forEach(v -> out.add(field + "=" + (v.contains(" ") ? "\"" + v + "\"" : v))));
+        return String.join(" ", out);
     }
 
     /** Number of documents in the index; tests compare it with the store. */
@@ -309,22 +574,26 @@ public final class SearchIndex implements ChangeListener, AutoCloseable {
         }
     }
 
-    private List<String> words(String text) {
-        List<String> words = new ArrayList<>();
-        try (TokenStream stream = queryAnalyzer.tokenStream("name", new StringReader(text))) {
-            CharTermAttribute term = stream.addAttribute(CharTermAttribute.class);
-            stream.reset();
-            while (stream.incrementToken()) {
-                String word = term.toString();
-                if (!words.contains(word)) {
-                    words.add(word);
+    /** The keys of every document ({@code dataset:7}, {@code column:7:2}, {@code script:3}, {@code owner:1}), sorted. */
+    public List<String> keys() {
+        try {
+            searchers.maybeRefreshBlocking();
+            IndexSearcher searcher = searchers.acquire();
+            try {
+                TopDocs all = searcher.search(new MatchAllDocsQuery(), Math.max(1, searcher.getIndexReader().numDocs()));
+                var stored = searcher.storedFields();
+                List<String> keys = new ArrayList<>();
+                for (ScoreDoc sd : all.scoreDocs) {
+                    keys.add(stored.document(sd.doc).get(Documents.KEY));
                 }
+                keys.sort(null);
+                return keys;
+            } finally {
+                searchers.release(searcher);
             }
-            stream.end();
         } catch (IOException e) {
-            throw new SearchException("Cannot analyse the query", e);
+            throw new SearchException("Cannot list documents", e);
         }
-        return words;
     }
 
     private static void deleteIndexFiles(Path folder) throws IOException {
@@ -345,5 +614,4 @@ public final class SearchIndex implements ChangeListener, AutoCloseable {
             throw new SearchException("Closing the search index failed", e);
         }
     }
-
 }

@@ -68,6 +68,11 @@ public final class CatalogReader {
         return new OwnerReader(db);
     }
 
+    /** The query context, for the other read-side classes of this package. */
+    DSLContext db() {
+        return db;
+    }
+
     /** Number of datasets present now. */
     public int datasetCount() {
         return db.fetchCount(DATASET_STATE, DATASET_STATE.VALID_TO.isNull());

@@ -46,7 +46,7 @@ class CommandLineTest {
         assertThat(b.get("scripts").asInt()).isEqualTo(a.get("scripts").asInt());
         assertThat(b.get("changes").asInt()).isZero();
         assertThat(search.exit()).isZero();
-        assertThat(JSON.readTree(search.out()).get(0).get("name").asText()).isEqualTo("lab/nitrate_results_2025.csv");
+        assertThat(JSON.readTree(search.out()).get("hits").get(0).get("name").asText()).isEqualTo("lab/nitrate_results_2025.csv");
     }
 
     @Test
@@ -84,7 +84,7 @@ class CommandLineTest {
         run("harvest", Workspaces.demo().toString(), "--data-dir", dataDir);
         Ran reindex = run("reindex", "--data-dir", dataDir, "--json");
         assertThat(reindex.exit()).isZero();
-        assertThat(JSON.readTree(reindex.out()).get("documents").asInt()).isEqualTo(29); // 16 file datasets, 5 SQL tables and views, 8 scripts
+        assertThat(JSON.readTree(reindex.out()).get("documents").asInt()).isEqualTo(162); // 16 file datasets, 5 SQL tables and views, 8 scripts, 133 columns
     }
 
     @Test

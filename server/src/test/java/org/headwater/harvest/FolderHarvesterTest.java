@@ -73,7 +73,7 @@ class FolderHarvesterTest {
         Files.writeString(lake.resolve("drop_me.csv"), "a,b\n1,2\n");
         try (Catalog catalog = TestCatalogs.fresh(temp.resolve("catalog"))) {
             catalog.harvestFolder(lake, false, HarvestProgress.NONE);
-            assertThat(catalog.index().search("drop_me", null, 5)).hasSize(1);
+            assertThat(catalog.index().search("drop_me", "file", 5)).hasSize(1);
             Files.delete(lake.resolve("drop_me.csv"));
             HarvestSummary second = catalog.harvestFolder(lake, false, HarvestProgress.NONE);
 

@@ -1,0 +1,50 @@
+package org.headwater.checks;
+
+import static org.assertj.core.api.Assertions.assertThat;
+
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.nio.file.attribute.FileTime;
+import java.time.Duration;
+import java.time.Instant;
+import java.util.Map;
+import org.headwater.Catalog;
+import org.headwater.harvest.HarvestProgress;
+import org.headwater.search.SearchRequest;
+import org.headwater.testing.TestCatalogs;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+
+/** The search's freshness facet counts the states the checks recorded, and follows the next recorded check. */
+class RecordedStatesTest {
+    @TempDir
+    Path temp;
+
+    @Test
+    void theFreshnessFacetShowsRecordedStatesAndFollowsANewCheck() throws Exception {
+        Path lake = Files.createDirectories(temp.resolve("apiary"));
+        Path comb = lake.resolve("comb_weights.csv");
+        Files.writeString(comb, "hive,kg\nH1,2.5\n");
+        Files.writeString(lake.resolve("queen_marks.csv"), "hive,colour\nH1,blue\n");
+        // Ten days old against a one-day limit: late (README, Freshness: "late when older than the max age").
+        Files.setLastModifiedTime(comb, FileTime.from(Instant.now().minus(Duration.ofDays(10))));
+        Files.writeString(lake.resolve(".headwater-freshness"), "comb_weights.csv  max-age 1d\n");
+        try (Catalog catalog = TestCatalogs.fresh(temp.resolve("catalog"))) {
+            catalog.harvestFolder(lake, false, HarvestProgress.NONE);
+            SearchRequest hives = SearchRequest.of("hive", null, 10);
+            assertThat(catalog.index().search(hives).facets().get("freshness")).isEqualTo(Map.of("unknown", 2));
+
+            catalog.freshness().record();
+            assertThat(catalog.index().search(hives).facets().get("freshness"))
+                    .isEqualTo(Map.of("late", 1, "unknown", 1));
+
+            // The file is brought up to date and checked again: the facet follows without a reindex.
+            Files.setLastModifiedTime(comb, FileTime.from(Instant.now()));
+            Files.writeString(comb, "hive,kg\nH1,2.7\n");
+            catalog.harvestFolder(lake, false, HarvestProgress.NONE);
+            catalog.freshness().record();
+            assertThat(catalog.index().search(hives).facets().get("freshness"))
+                    .isEqualTo(Map.of("fresh", 1, "unknown", 1));
+        }
+    }
+}
