@@ -24,10 +24,14 @@ start)
   # Members of headwater_password_login must give their password (tests of wrong credentials); the rest is trust.
   hba="$dir/data/pg_hba.conf"
   grep -q headwater_password_login "$hba" || as_owner sed -i '1i host all +headwater_password_login 127.0.0.1/32 scram-sha-256' "$hba"
-  port=$(python3 -c 'import socket; s=socket.socket(); s.bind(("127.0.0.1",0)); print(s.getsockname()[1])')
-  as_owner "$bin/pg_ctl" -D "$dir/data" -l "$dir/server.log" -w \
-    -o "-c listen_addresses=127.0.0.1 -p $port -k $dir -c max_connections=200 -c fsync=off" start >/dev/null \
-    || { cat "$dir/server.log" >&2; exit 1; }
+  if [ -f "$dir/port" ] && as_owner "$bin/pg_ctl" -D "$dir/data" status >/dev/null 2>&1; then
+    port=$(cat "$dir/port")  # already running (a second start in the same folder): reuse it
+  else
+    port=$(python3 -c 'import socket; s=socket.socket(); s.bind(("127.0.0.1",0)); print(s.getsockname()[1])')
+    as_owner "$bin/pg_ctl" -D "$dir/data" -l "$dir/server.log" -w \
+      -o "-c listen_addresses=127.0.0.1 -p $port -k $dir -c max_connections=200 -c fsync=off" start >/dev/null \
+      || { cat "$dir/server.log" >&2; exit 1; }
+  fi
   echo "$port" >"$dir/port"
   echo "export HEADWATER_TEST_PG_URL=jdbc:postgresql://127.0.0.1:$port/postgres"
   echo "export HEADWATER_TEST_PG_USER=headwater"
