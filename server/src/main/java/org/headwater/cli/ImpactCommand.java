@@ -5,6 +5,7 @@ import java.util.concurrent.Callable;
 import org.headwater.Catalog;
 import org.headwater.impact.ChangeKind;
 import org.headwater.impact.ImpactAnalysis;
+import org.headwater.lineage.LineageGraph;
 import org.headwater.impact.ImpactMarkdown;
 import org.headwater.impact.ImpactReport;
 import org.headwater.lineage.Target;
@@ -33,6 +34,10 @@ final class ImpactCommand implements Callable<Integer> {
                     + " Default: drop for a column, delete for a dataset.")
     String change;
 
+    @Option(names = "--as-of", paramLabel = "TIME",
+            description = "Answer from the lineage and owners as they were then (2026-03-01 or 2026-03-01T12:00:00Z).")
+    String asOf;
+
     @Option(names = "--markdown", description = "Print Markdown (counts, owners, one table per distance).")
     boolean markdown;
 
@@ -50,11 +55,12 @@ final class ImpactCommand implements Callable<Integer> {
         ImpactReport report;
         try (Catalog open = catalog.open()) {
             OwnerReader owners = new OwnerReader(open.store());
+            LineageGraph graph = asOf == null ? open.lineage() : LineageGraph.loadAsOf(open.store(), CliTimes.parse(asOf));
             try {
-                Target target = new Targets(open.reader(), owners, open.lineage()).resolve(key);
+                Target target = new Targets(open.reader(), owners, graph).resolve(key);
                 ChangeKind kind = change != null ? ChangeKind.of(change)
                         : target.namesColumn() ? ChangeKind.DROP : ChangeKind.DELETE;
-                report = new ImpactAnalysis(open.lineage(), new LabelReader(open.store()), owners).report(target, kind);
+                report = new ImpactAnalysis(graph, new LabelReader(open.store()), owners).report(target, kind);
             } catch (TargetException | IllegalArgumentException e) {
                 throw new Problems.UsageProblem(e.getMessage());
             }

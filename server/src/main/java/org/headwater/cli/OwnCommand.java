@@ -33,6 +33,10 @@ final class OwnCommand implements Callable<Integer> {
     @Option(names = "--team", description = "OWNER is a team (default: a person).")
     boolean team;
 
+    @Option(names = "--as-of", paramLabel = "TIME",
+            description = "List the owners as they were then (2026-03-01 or 2026-03-01T12:00:00Z); not with OWNER.")
+    String asOf;
+
     @Option(names = "--remove", description = "End OWNER's ownership instead.")
     boolean remove;
 
@@ -79,7 +83,10 @@ final class OwnCommand implements Callable<Integer> {
             } else if (remove || team) {
                 throw new Problems.UsageProblem("--remove and --team need an OWNER");
             }
-            owners = OwnerList.of(reader, target);
+            if (owner != null && asOf != null) {
+                throw new Problems.UsageProblem("--as-of only lists owners; it cannot change the past");
+            }
+            owners = OwnerList.of(reader, target, asOf == null ? null : CliTimes.parse(asOf));
             name = target.partition() != null ? target.partition() : target.dataset();
         }
         PrintWriter out = spec.commandLine().getOut();

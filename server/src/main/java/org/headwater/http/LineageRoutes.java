@@ -65,7 +65,10 @@ final class LineageRoutes {
         if (key == null) {
             throw ApiError.badRequest("Parameter 'target' is required: a dataset id, URI or name, or name.column");
         }
-        Target target = target(() -> targets(open, open.lineage()).resolve(key));
+        java.time.Instant asOf = Params.asOf(ctx);
+        org.headwater.lineage.LineageGraph graph = asOf == null ? open.lineage()
+                : org.headwater.lineage.LineageGraph.loadAsOf(open.store(), asOf);
+        Target target = target(() -> targets(open, graph).resolve(key));
         String format = Params.optional(ctx, "format");
         if (format != null && !format.equals("json") && !format.equals("markdown")) {
             throw ApiError.badRequest("Parameter 'format' must be json or markdown, got '" + format + "'");
@@ -74,7 +77,7 @@ final class LineageRoutes {
         try {
             String change = Params.optional(ctx, "change");
             ChangeKind kind = change != null ? ChangeKind.of(change) : target.namesColumn() ? ChangeKind.DROP : ChangeKind.DELETE;
-            report = new ImpactAnalysis(open.lineage(), new LabelReader(open.store()), new OwnerReader(open.store()))
+            report = new ImpactAnalysis(graph, new LabelReader(open.store()), new OwnerReader(open.store()))
                     .report(target, kind);
         } catch (IllegalArgumentException e) {
             throw ApiError.badRequest(e.getMessage());

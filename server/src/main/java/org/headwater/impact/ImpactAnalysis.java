@@ -289,7 +289,7 @@ public final class ImpactAnalysis {
             PathLabels names = PathLabels.of(labels, datasetIds, scriptIds);
             Set<Long> ownedIds = new HashSet<>();
             byKey.values().stream().filter(d -> !d.script()).forEach(d -> ownedIds.add(d.id()));
-            Map<Long, List<OwnerReader.Assigned>> assigned = owners.assigned(ownedIds, null);
+            Map<Long, List<OwnerReader.Assigned>> assigned = owners.assigned(ownedIds, graph.asOf());
             Map<Long, List<String>> authors = owners.scriptAuthors(scriptIds);
             Map<Long, List<OwnerView>> suggested = new HashMap<>();
 
@@ -317,7 +317,7 @@ public final class ImpactAnalysis {
                     who = !own.isEmpty()
                             ? own.stream().map(a -> new OwnerView(a.owner(), a.kind(), a.reason(), a.origin(),
                                     a.inherited(), false)).toList()
-                            : suggested.computeIfAbsent(d.id(), id -> owners.suggestedFor(id, null));
+                            : suggested.computeIfAbsent(d.id(), id -> owners.suggestedFor(id, graph.asOf()));
                 }
                 List<Step> path = d.path().stream()
                         .map(step -> step instanceof Hop h ? names.step(h) : names.step((ColumnHop) step)).toList();

@@ -12,7 +12,12 @@ import org.headwater.store.Views.OwnerView;
 public record OwnerList(String dataset, List<OwnerView> owners) {
 
     public static List<OwnerView> of(OwnerReader reader, Target target) {
-        List<OwnerView> owners = reader.ownersOf(target.datasetId(), null);
+        return of(reader, target, null);
+    }
+
+    /** The owners as they were at {@code asOf} (now when null). */
+    public static List<OwnerView> of(OwnerReader reader, Target target, java.time.Instant asOf) {
+        List<OwnerView> owners = reader.ownersOf(target.datasetId(), asOf);
         if (target.partition() == null) {
             return owners;
         }
