@@ -8,6 +8,7 @@ import java.util.concurrent.CountDownLatch;
 import java.util.function.Function;
 import org.headwater.Catalog;
 import org.headwater.http.ApiServer;
+import org.headwater.http.ServerSettings;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
@@ -24,13 +25,36 @@ final class ServeCommand implements Callable<Integer> {
     @Mixin
     CatalogOptions catalog;
 
+    @Option(names = "--no-anonymous-read", negatable = false,
+            description = "Answer reads only with a token (of any role); by default anyone who can reach the server may read.")
+    boolean noAnonymousRead;
+
+    @Option(names = "--root", paramLabel = "DIR",
+            description = "A folder that run records may name (repeatable). Without any, every path is accepted.")
+    java.util.List<java.nio.file.Path> roots = new java.util.ArrayList<>();
+
+    @Option(names = "--rate-limit", paramLabel = "N", defaultValue = "50",
+            description = "Requests per second per token, or per address without one (bursts of 4 N; default ${DEFAULT-VALUE}).")
+    double rateLimit;
+
     @Spec
     picocli.CommandLine.Model.CommandSpec spec;
 
     @Override
     public Integer call() throws InterruptedException {
         // The store opens while the HTTP server starts: the two are the bulk of start-up time.
-        serveUntilStopped(CompletableFuture.supplyAsync(catalog::open), listen.host, listen.port, spec.commandLine().getOut(),
+        for (java.nio.file.Path root : roots) {
+            if (!java.nio.file.Files.isDirectory(root)) {
+                throw new Problems.UsageProblem("--root " + root + " is not a folder");
+            }
+        }
+        if (rateLimit <= 0) {
+            throw new Problems.UsageProblem("--rate-limit must be more than 0");
+        }
+        ServerSettings settings = ServerSettings.defaults().withAnonymousRead(!noAnonymousRead).withRoots(roots)
+                .withRate(rateLimit, 4 * rateLimit);
+        serveUntilStopped(CompletableFuture.supplyAsync(catalog::open), listen.host, listen.port, settings,
+                spec.commandLine().getOut(),
                 server -> "Headwater is serving " + catalog.dataDir.toAbsolutePath().normalize() + " at " + server.url(),
                 () -> { });
         return Main.OK;
@@ -42,11 +66,12 @@ final class ServeCommand implements Callable<Integer> {
      * then runs {@code afterClose}: one shutdown hook does all three, because the JVM runs separate hooks
      * in no set order.
      */
-    static void serveUntilStopped(CompletableFuture<Catalog> opening, String host, int port, PrintWriter out,
+    static void serveUntilStopped(CompletableFuture<Catalog> opening, String host, int port, ServerSettings settings,
+            PrintWriter out,
             Function<ApiServer, String> greeting, Runnable afterClose) throws InterruptedException {
         ApiServer server;
         try {
-            server = ApiServer.start(opening, host, port);
+            server = ApiServer.start(opening, host, port, settings);
         } catch (RuntimeException e) {
             opening.whenComplete((c, failure) -> {
                 if (c != null) {
