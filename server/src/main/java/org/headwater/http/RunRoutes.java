@@ -2,6 +2,8 @@ package org.headwater.http;
 
 import com.fasterxml.jackson.databind.JsonNode;
 import io.javalin.http.Context;
+import static org.headwater.store.schema.Tables.RUN;
+
 import java.io.IOException;
 import java.net.URI;
 import java.nio.file.InvalidPathException;
@@ -60,6 +62,7 @@ final class RunRoutes {
         RunReported run = new RunReported(parsed.runId(), parsed.client(), parsed.scriptUri(), parsed.scriptHash(),
                 parsed.gitCommit(), parsed.startedAt(), parsed.endedAt(), parsed.exitCode(), parsed.exception(),
                 parsed.user(), parsed.host(), parsed.arguments(), kept);
+        conflict(run);
         List<Change> changes = catalog.get().ingestor().apply("runtime", List.of(run));
         boolean created = !changes.isEmpty();
         for (Refused r : refused) {
@@ -68,6 +71,17 @@ final class RunRoutes {
                     "run.io_refused", r.path(), 403, ctx.ip(), "run " + run.runId() + ": " + r.reason());
         }
         ctx.status(created ? 201 : 200).json(new Stored(run.runId(), created, refused));
+    }
+
+    /** A run id names one run: the same id again with another script or start time is a client bug, not a resend. */
+    private void conflict(RunReported run) {
+        var stored = catalog.get().store().dsl().select(RUN.SCRIPT_URI, RUN.STARTED_AT).from(RUN)
+                .where(RUN.ID.eq(run.runId())).fetchOne();
+        if (stored != null && (!run.scriptUri().equals(stored.value1())
+                || !run.startedAt().equals(stored.value2().toInstant()))) {
+            throw ApiError.conflict("Run '" + run.runId() + "' is already stored for another script or start time;"
+                    + " a resent run must be identical, a new run needs a new run_id");
+        }
     }
 
     static RunReported parse(String body) {
