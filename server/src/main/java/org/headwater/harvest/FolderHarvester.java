@@ -184,8 +184,12 @@ public final class FolderHarvester {
         public FileVisitResult visitFile(Path file, BasicFileAttributes attrs) {
             // walkFileTree does not follow links, so a link arrives here as a link: never followed, so
             // nothing outside the root is ever read through one.
-            if (!attrs.isRegularFile() || attrs.isSymbolicLink() || isHidden(file)) {
+            if (isHidden(file)) {
                 run.ignored++;
+            } else if (!attrs.isRegularFile() || attrs.isSymbolicLink()) {
+                // Never read, but said why: a link is not followed, a device or FIFO could block or never end.
+                SpecialFiles.Skip skip = SpecialFiles.describe(root, file, attrs);
+                run.skipped(file.toUri().toString(), skip.kind(), skip.reason());
             } else {
                 files.add(new Listed(file, attrs, root.relativize(file).toString().replace(java.io.File.separatorChar, '/')));
             }
@@ -351,6 +355,12 @@ public final class FolderHarvester {
             return Objects.equals(before.sizeBytes(), attrs.size())
                     && before.modifiedAt() != null
                     && before.modifiedAt().equals(attrs.lastModifiedTime().toInstant().truncatedTo(ChronoUnit.MICROS));
+        }
+
+        /** A file left out on purpose: counted as ignored, with its reason in the harvest's error list. */
+        void skipped(String uri, String kind, String message) {
+            ignored++;
+            journal.error(harvestId, uri, kind, message);
         }
 
         void error(String uri, String kind, String message) {
