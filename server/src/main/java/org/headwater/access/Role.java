@@ -30,6 +30,7 @@ public enum Role implements RouteRole {
     }
 
     /** The lower-case word used on the command line, in the store and in answers. */
+    @com.fasterxml.jackson.annotation.JsonValue
     public String word() {
         return name().toLowerCase(Locale.ROOT);
     }
