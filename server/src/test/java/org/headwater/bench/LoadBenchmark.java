@@ -21,8 +21,8 @@ public final class LoadBenchmark {
         int seconds = args.length > 2 ? Integer.parseInt(args[2]) : 60;
         Path dir = Files.createTempDirectory("headwater-load");
         try (Catalog floorCatalog = Catalog.open(dir.resolve("floor-catalog"))) {
-            LoadRun.Result floor = LoadRun.run(dir.resolve("floor"), 1, 0, Duration.ofSeconds(10), floorCatalog);
-            System.out.println("floor (1 reader alone, 10 s): " + floor.report());
+            LoadRun.Result floor = LoadRun.run(dir.resolve("floor"), 1, 0, false, Duration.ofSeconds(10), floorCatalog);
+            System.out.println("floor (1 reader, no posts, no harvest, 10 s): " + floor.report());
         }
         try (Catalog catalog = Catalog.open(dir.resolve("catalog"))) {
             LoadRun.Result result = LoadRun.run(dir.resolve("load"), readers, posters, Duration.ofSeconds(seconds), catalog);

@@ -51,6 +51,12 @@ public final class LoadRun {
 
     /** Runs the load against a fresh catalog in {@code dir} on a copy of the demo workspace. */
     public static Result run(Path dir, int readers, int posters, Duration length, Catalog catalog) throws Exception {
+        return run(dir, readers, posters, true, length, catalog);
+    }
+
+    /** As above; {@code harvesting} false leaves out the repeating harvest (for a floor). */
+    public static Result run(Path dir, int readers, int posters, boolean harvesting, Duration length, Catalog catalog)
+            throws Exception {
         Path workspace = Workspaces.demoCopy(dir.resolve("workspace"));
         catalog.harvestFolder(workspace, false, HarvestProgress.NONE);
         // Rate limits are raised: this measures the server, not the limiter (LimitsTest covers that).
@@ -107,7 +113,7 @@ public final class LoadRun {
                 }, "load-poster-" + t));
             }
             threads.add(new Thread(() -> {
-                while (System.nanoTime() < deadline) {
+                while (harvesting && System.nanoTime() < deadline) {
                     try {
                         catalog.harvestFolder(workspace, true, HarvestProgress.NONE);
                         harvests.incrementAndGet();
