@@ -1,6 +1,7 @@
 package org.headwater.cli;
 
 import java.nio.file.Files;
+import java.nio.file.Path;
 import java.time.Clock;
 import java.time.Duration;
 import java.util.concurrent.Callable;
@@ -36,11 +37,15 @@ final class TokenCommand implements Runnable {
         throw new CommandLine.ParameterException(spec.commandLine(), "Name a subcommand: create, list or revoke.");
     }
 
+    /** The catalog's store, created when new: tokens are often made before the first {@code serve}. */
     static Store open(CatalogOptions catalog) {
-        if (!Files.isDirectory(catalog.dataDir)) {
-            throw new Problems.UsageProblem("no catalog in " + catalog.dataDir.toAbsolutePath().normalize());
+        Path dir = catalog.dataDir.toAbsolutePath().normalize();
+        try {
+            Files.createDirectories(dir);
+        } catch (java.io.IOException e) {
+            throw new Problems.UsageProblem("cannot create the catalog directory " + dir + ": " + e.getMessage());
         }
-        return Store.open(StoreConfig.embedded(catalog.dataDir.toAbsolutePath().normalize()));
+        return Store.open(StoreConfig.embedded(dir));
     }
 
     /** {@code 30d}, {@code 12h} or {@code 90m}. */
