@@ -46,7 +46,9 @@ final class DemoCommand implements Callable<Integer> {
                 throw new UncheckedIOException(e);
             }
         });
-        ServeCommand.serveUntilStopped(opening, listen.host, listen.port, spec.commandLine().getOut(), server ->
+        // The demo's run records may name only its own workspace.
+        var settings = org.headwater.http.ServerSettings.defaults().withRoots(java.util.List.of(temp));
+        ServeCommand.serveUntilStopped(opening, listen.host, listen.port, settings, spec.commandLine().getOut(), server ->
                 String.format("Demo workspace %s: %d datasets, %d scripts%n"
                                 + "Headwater demo is serving at %s%nTry %sapi/search?q=nitrate  (stop with Ctrl-C)",
                         workspace, summary.get().datasets(), summary.get().scripts(), server.url(), server.url()),

@@ -11,7 +11,7 @@ import picocli.CommandLine.Command;
                 ExportCommand.class,
                 CheckCommand.class,
                 UpstreamCommand.class, DownstreamCommand.class, ImpactCommand.class, OwnCommand.class,
-                DemoCommand.class, CommandLine.HelpCommand.class})
+                TokenCommand.class, AuditCommand.class, DemoCommand.class, CommandLine.HelpCommand.class})
 public final class Main implements Runnable {
 
     /** Exit codes of every command. */
@@ -26,6 +26,11 @@ public final class Main implements Runnable {
         // jOOQ prints a logo and tips at first use; in a command-line tool that is noise and start-up time.
         System.setProperty("org.jooq.no-logo", "true");
         System.setProperty("org.jooq.no-tips", "true");
+        // Before any logger exists: HEADWATER_LOG_FORMAT=json gives one JSON object per log line.
+        if ("json".equalsIgnoreCase(System.getenv("HEADWATER_LOG_FORMAT"))
+                && System.getProperty("logback.configurationFile") == null) {
+            System.setProperty("logback.configurationFile", "headwater-logback-json.xml");
+        }
     }
 
     public static void main(String[] args) {

@@ -12,6 +12,7 @@ import org.headwater.harvest.config.SourceRunner;
 import org.headwater.harvest.config.SourceSchedule;
 import org.headwater.harvest.config.SourcesConfig;
 import org.headwater.http.ApiServer;
+import org.headwater.http.ServerSettings;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
@@ -42,6 +43,17 @@ final class ServeCommand implements Callable<Integer> {
     @Option(names = "--config", paramLabel = "FILE",
             description = "A sources file: sources with an 'every' schedule are harvested while serving.")
     java.nio.file.Path config;
+    @Option(names = "--no-anonymous-read", negatable = false,
+            description = "Answer reads only with a token (of any role); by default anyone who can reach the server may read.")
+    boolean noAnonymousRead;
+
+    @Option(names = "--root", paramLabel = "DIR",
+            description = "A folder that run records may name (repeatable). Without any, every path is accepted.")
+    java.util.List<java.nio.file.Path> roots = new java.util.ArrayList<>();
+
+    @Option(names = "--rate-limit", paramLabel = "N", defaultValue = "50",
+            description = "Requests per second per token, or per address without one (bursts of 4 N; default ${DEFAULT-VALUE}).")
+    double rateLimit;
 
     @Spec
     picocli.CommandLine.Model.CommandSpec spec;
@@ -52,8 +64,18 @@ final class ServeCommand implements Callable<Integer> {
         org.headwater.checks.Webhook hook = webhookOption();
         SourcesConfig sources = config == null ? null : readSources(config);
         PrintWriter out = spec.commandLine().getOut();
+        for (java.nio.file.Path root : roots) {
+            if (!java.nio.file.Files.isDirectory(root)) {
+                throw new Problems.UsageProblem("--root " + root + " is not a folder");
+            }
+        }
+        if (rateLimit <= 0) {
+            throw new Problems.UsageProblem("--rate-limit must be more than 0");
+        }
+        ServerSettings settings = ServerSettings.defaults().withAnonymousRead(!noAnonymousRead).withRoots(roots)
+                .withRate(rateLimit, 4 * rateLimit);
         // The store opens while the HTTP server starts: the two are the bulk of start-up time.
-        serveUntilStopped(CompletableFuture.supplyAsync(catalog::open), listen.host, listen.port, out,
+        serveUntilStopped(CompletableFuture.supplyAsync(catalog::open), listen.host, listen.port, settings, out,
                 server -> "Headwater is serving " + catalog.dataDir.toAbsolutePath().normalize() + " at " + server.url(),
                 open -> {
                     AutoCloseable checks = period == null ? () -> { }
@@ -122,21 +144,23 @@ final class ServeCommand implements Callable<Integer> {
      * then runs {@code afterClose}: one shutdown hook does all three, because the JVM runs separate hooks
      * in no set order.
      */
-    static void serveUntilStopped(CompletableFuture<Catalog> opening, String host, int port, PrintWriter out,
+    static void serveUntilStopped(CompletableFuture<Catalog> opening, String host, int port, ServerSettings settings,
+            PrintWriter out,
             Function<ApiServer, String> greeting, Runnable afterClose) throws InterruptedException {
-        serveUntilStopped(opening, host, port, out, greeting, open -> () -> { }, afterClose);
+        serveUntilStopped(opening, host, port, settings, out, greeting, open -> () -> { }, afterClose);
     }
 
     /**
      * As above, and starts {@code alongside} (the scheduled checks) once the catalog is open; what it
      * returns is closed before the server and the catalog.
      */
-    static void serveUntilStopped(CompletableFuture<Catalog> opening, String host, int port, PrintWriter out,
-            Function<ApiServer, String> greeting, Function<Catalog, AutoCloseable> alongside, Runnable afterClose)
+    static void serveUntilStopped(CompletableFuture<Catalog> opening, String host, int port, ServerSettings settings,
+            PrintWriter out, Function<ApiServer, String> greeting, Function<Catalog, AutoCloseable> alongside,
+            Runnable afterClose)
             throws InterruptedException {
         ApiServer server;
         try {
-            server = ApiServer.start(opening, host, port);
+            server = ApiServer.start(opening, host, port, settings);
         } catch (RuntimeException e) {
             opening.whenComplete((c, failure) -> {
                 if (c != null) {

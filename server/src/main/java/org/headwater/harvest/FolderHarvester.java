@@ -168,6 +168,7 @@ public final class FolderHarvester {
             StorageBackend.Listing listing = backend.list();
             run.ignored += listing.ignored();
             listing.problems().forEach(p -> run.error(p.uri(), p.kind(), p.message()));
+            listing.skipped().forEach(p -> run.skipped(p.uri(), p.kind(), p.message()));
             List<StoredObject> selected = new ArrayList<>();
             for (StoredObject o : listing.objects()) {
                 if (options.filter().selects(o.name())) {
@@ -409,6 +410,12 @@ public final class FolderHarvester {
                     && before.modifiedAt() != null
                     && before.modifiedAt().equals(now.modified().truncatedTo(ChronoUnit.MICROS))
                     && (now.etag() == null || Objects.equals(before.contentHash(), FileInspector.etagIdentity(now.etag())));
+        }
+
+        /** A file left out on purpose: counted as ignored, with its reason in the harvest's error list. */
+        void skipped(String uri, String kind, String message) {
+            ignored++;
+            journal.error(harvestId, uri, kind, message);
         }
 
         void error(String uri, String kind, String message) {

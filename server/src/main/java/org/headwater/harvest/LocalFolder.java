@@ -50,6 +50,7 @@ public final class LocalFolder implements StorageBackend {
     public Listing list() throws IOException {
         List<StoredObject> objects = new ArrayList<>();
         List<Problem> problems = new ArrayList<>();
+        List<Problem> skipped = new ArrayList<>();
         int[] ignored = {0};
         Files.walkFileTree(root, new SimpleFileVisitor<>() {
             @Override
@@ -67,8 +68,12 @@ public final class LocalFolder implements StorageBackend {
             public FileVisitResult visitFile(Path file, BasicFileAttributes attrs) {
                 // walkFileTree does not follow links, so a link arrives here as a link: never followed, so
                 // nothing outside the root is ever read through one.
-                if (!attrs.isRegularFile() || attrs.isSymbolicLink() || FolderHarvester.isHidden(file)) {
+                if (FolderHarvester.isHidden(file)) {
                     ignored[0]++;
+                } else if (!attrs.isRegularFile() || attrs.isSymbolicLink()) {
+                    // Never read, but said why: a link is not followed, a device or FIFO could block or never end.
+                    SpecialFiles.Skip skip = SpecialFiles.describe(root, file, attrs);
+                    skipped.add(new Problem(file.toUri().toString(), skip.kind(), skip.reason()));
                 } else {
                     String name = root.relativize(file).toString().replace(java.io.File.separatorChar, '/');
                     StoredObject object = new StoredObject(name, file.toUri().toString(), attrs.size(),
@@ -89,7 +94,7 @@ public final class LocalFolder implements StorageBackend {
                 return FileVisitResult.CONTINUE;
             }
         });
-        return new Listing(objects, ignored[0], problems);
+        return new Listing(objects, ignored[0], problems, skipped);
     }
 
     @Override

@@ -14,11 +14,20 @@ import org.headwater.harvest.format.TailReader;
  */
 public interface StorageBackend {
 
-    /** What a backend's listing found: the harvestable objects in name order, and how many it left alone. */
-    record Listing(List<StoredObject> objects, int ignored, List<Problem> problems) {
+    /**
+     * What a backend's listing found: the harvestable objects in name order, how many it left alone, what it
+     * could not look at ({@code problems}, errors of the harvest) and what it left alone for a reason worth
+     * recording ({@code skipped}: links, devices, FIFOs; counted as ignored, not as errors).
+     */
+    record Listing(List<StoredObject> objects, int ignored, List<Problem> problems, List<Problem> skipped) {
         public Listing {
             objects = List.copyOf(objects);
             problems = List.copyOf(problems);
+            skipped = List.copyOf(skipped);
+        }
+
+        public Listing(List<StoredObject> objects, int ignored, List<Problem> problems) {
+            this(objects, ignored, problems, List.of());
         }
     }
 

@@ -7,6 +7,8 @@ import io.javalin.http.HttpStatus;
 import io.javalin.http.staticfiles.Location;
 import io.javalin.json.JavalinJackson;
 import org.headwater.Catalog;
+import org.headwater.access.Role;
+import org.headwater.access.Roots;
 import org.slf4j.Logger;
 import org.slf4j.LoggerFactory;
 
@@ -20,43 +22,67 @@ public final class ApiServer implements AutoCloseable {
 
     private final Javalin app;
     private final String host;
+    private final QueryLimit limit;
 
-    private ApiServer(Javalin app, String host) {
+    private ApiServer(Javalin app, String host, QueryLimit limit) {
         this.app = app;
         this.host = host;
+        this.limit = limit;
     }
 
-    /** Starts serving {@code catalog} on {@code host:port}; port 0 picks a free port. */
+    /** Starts serving {@code catalog} on {@code host:port} with default settings; port 0 picks a free port. */
     public static ApiServer start(Catalog catalog, String host, int port) {
-        return start(CompletableFuture.completedFuture(catalog), host, port);
+        return start(CompletableFuture.completedFuture(catalog), host, port, ServerSettings.defaults());
+    }
+
+    /** Starts serving {@code catalog} with the given settings. */
+    public static ApiServer start(Catalog catalog, String host, int port, ServerSettings settings) {
+        return start(CompletableFuture.completedFuture(catalog), host, port, settings);
     }
 
     /**
      * Starts serving a catalog that may still be opening; until it is ready, {@code /api/health} answers
      * 503 with status {@code starting} and other endpoints answer 503.
+     *
+     * <p>Every route declares the role it needs where it is registered (the last argument); a read
+     * without one needs {@link Role#READER}, a write without one is refused ({@link Access}).
      */
-    public static ApiServer start(CompletableFuture<Catalog> opening, String host, int port) {
+    public static ApiServer start(CompletableFuture<Catalog> opening, String host, int port, ServerSettings settings) {
         CatalogHolder catalog = new CatalogHolder(opening);
         ObjectMapper mapper = ApiJson.mapper();
+        Roots roots = Roots.of(settings.roots());
+        if (roots.unrestricted()) {
+            LOG.warn("No --root given: run records may name any path on this machine");
+        }
+        var access = new Access(catalog, settings);
+        var metrics = new Metrics();
+        opening.thenAccept(metrics::bind);
+        var limit = new QueryLimit(settings.queryTime());
         var datasets = new DatasetRoutes(catalog);
         var search = new SearchRoutes(catalog);
         var scripts = new ScriptRoutes(catalog);
         var harvests = new HarvestRoutes(catalog);
-        var runs = new RunRoutes(catalog);
+        var runs = new RunRoutes(catalog, roots, access);
         var whence = new WhenceRoutes(catalog);
         var freshness = new FreshnessRoutes(catalog);
         var ui = new UiRoutes(catalog);
         var lineage = new LineageRoutes(catalog);
+        var audit = new AuditRoutes(access);
         long startedAt = System.currentTimeMillis();
         Javalin app = Javalin.create(config -> {
             config.jsonMapper(new JavalinJackson(mapper, false));
             config.startup.showJavalinBanner = false;
-            config.http.maxRequestSize = 1024 * 1024;
+            config.http.maxRequestSize = settings.maxBodyBytes();
             config.staticFiles.add(files -> {
                 files.hostedPath = "/";
                 files.directory = "/headwater-web";
                 files.location = Location.CLASSPATH;
             });
+            config.routes.before(SecurityHeaders::add);
+            config.routes.before(metrics::start);
+            config.routes.beforeMatched(access::check);
+            config.routes.afterMatched(access::recordWrite);
+            config.routes.after(metrics::stop);
             config.routes.get("/api/health", ctx -> {
                 if (!catalog.ready()) {
                     ctx.status(HttpStatus.SERVICE_UNAVAILABLE)
@@ -67,50 +93,60 @@ public final class ApiServer implements AutoCloseable {
                 ctx.json(new Health("ok", Version.current(), reader.datasetCount(), reader.scriptCount(),
                         System.currentTimeMillis() - startedAt));
             });
+            config.routes.get("/metrics", metrics::scrape);
             config.routes.get("/api/datasets", datasets::list);
             config.routes.get("/api/datasets/{id}", datasets::one);
             config.routes.get("/api/datasets/{id}/schema-history", datasets::schemaHistory);
-            config.routes.get("/api/datasets/{id}/lineage", datasets::lineage);
+            config.routes.get("/api/datasets/{id}/lineage", limit.bounded(datasets::lineage));
             config.routes.get("/api/scripts/{id}/reads", scripts::reads);
             config.routes.get("/api/scripts/{id}/runs", scripts::runs);
             config.routes.get("/api/datasets/{id}/runs", datasets::runs);
             config.routes.get("/api/datasets/{id}/copies", datasets::copies);
-            config.routes.put("/api/datasets/{id}/note", datasets::putNote);
-            config.routes.get("/api/search", search::search);
+            config.routes.put("/api/datasets/{id}/note", datasets::putNote, Role.EDITOR);
+            config.routes.get("/api/search", limit.bounded(search::search));
             config.routes.get("/api/scripts", scripts::list);
             config.routes.get("/api/scripts/{id}", scripts::one);
-            config.routes.post("/api/runs", runs::post);
+            config.routes.post("/api/runs", runs::post, Role.HARVESTER);
             config.routes.get("/api/runs", whence::runs);
-            config.routes.get("/api/whence", whence::whence);
+            config.routes.get("/api/whence", limit.bounded(whence::whence));
             config.routes.get("/api/harvests", harvests::list);
             config.routes.get("/api/harvests/{id}", harvests::one);
             config.routes.get("/api/freshness", freshness::all);
             config.routes.get("/api/freshness/history", freshness::history);
             config.routes.get("/api/datasets/{id}/freshness", freshness::one);
-            config.routes.put("/api/datasets/{id}/freshness-policy", freshness::putPolicy);
+            config.routes.put("/api/datasets/{id}/freshness-policy", freshness::putPolicy, Role.EDITOR);
             config.routes.get("/api/ui/overview", ui::overview);
             config.routes.get("/api/ui/figure/{id}", ui::figure);
-            config.routes.get("/api/datasets/{id}/upstream", lineage::upstream);
-            config.routes.get("/api/datasets/{id}/downstream", lineage::downstream);
-            config.routes.get("/api/impact", lineage::impact);
-            config.routes.put("/api/datasets/{id}/owners", lineage::putOwner);
-            config.routes.delete("/api/datasets/{id}/owners/{owner}", lineage::deleteOwner);
-            config.routes.exception(ApiError.class, (e, ctx) ->
-                    ctx.status(e.status()).json(new ApiError.Body(e.code(), e.getMessage())));
-            config.routes.exception(Exception.class, (e, ctx) -> {
-                // Never a stack trace to the caller; the log keeps it for whoever runs the server.
-                LOG.error("Request {} {} failed", ctx.method(), ctx.path(), e);
-                ctx.status(HttpStatus.INTERNAL_SERVER_ERROR)
-                        .json(new ApiError.Body("internal", "The server could not answer this request; see its log"));
-            });
-            config.routes.error(404, ctx -> {
-                if (ctx.path().startsWith("/api/") && ctx.result() == null) {
-                    ctx.json(new ApiError.Body("not_found", "No such endpoint: " + ctx.method() + " " + ctx.path()));
-                }
-            });
+            config.routes.get("/api/datasets/{id}/upstream", limit.bounded(lineage::upstream));
+            config.routes.get("/api/datasets/{id}/downstream", limit.bounded(lineage::downstream));
+            config.routes.get("/api/impact", limit.bounded(lineage::impact));
+            config.routes.put("/api/datasets/{id}/owners", lineage::putOwner, Role.EDITOR);
+            config.routes.delete("/api/datasets/{id}/owners/{owner}", lineage::deleteOwner, Role.EDITOR);
+            config.routes.get("/api/audit", audit::list, Role.ADMIN);
+            Errors.register(config.routes);
         });
         app.start(host, port);
-        return new ApiServer(app, host);
+        return new ApiServer(app, host, limit);
+    }
+
+    /** A registered endpoint with the role it declares (null: none declared). */
+    public record Route(String method, String path, Role role) {
+    }
+
+    private static final java.util.Set<String> METHODS = java.util.Set.of("GET", "POST", "PUT", "PATCH", "DELETE");
+
+    /** Every endpoint the server answers, for tests that check each write route's protection. */
+    public java.util.List<Route> routes() {
+        return app.unsafe.internalRouter.allHttpHandlers().stream()
+                .map(parsed -> parsed.endpoint)
+                .filter(e -> METHODS.contains(e.method.name()))
+                .map(e -> {
+                    var roles = e.metadata(io.javalin.security.Roles.class);
+                    Role role = roles == null ? null : roles.getRoles().stream()
+                            .filter(Role.class::isInstance).map(Role.class::cast).findFirst().orElse(null);
+                    return new Route(e.method.name(), e.path, role);
+                })
+                .toList();
     }
 
     public int port() {
@@ -125,6 +161,7 @@ public final class ApiServer implements AutoCloseable {
     @Override
     public void close() {
         app.stop();
+        limit.close();
     }
 
     /** The answer of {@code /api/health}. */

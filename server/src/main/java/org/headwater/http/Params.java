@@ -48,6 +48,12 @@ final class Params {
         return raw == null || raw.isBlank() ? null : parseTime(raw.trim());
     }
 
+    /** A time parameter other than {@code as_of}, in the same forms. */
+    static Instant asOfNamed(Context ctx, String name) {
+        String raw = ctx.queryParam(name);
+        return raw == null || raw.isBlank() ? null : parseTime(raw.trim());
+    }
+
     static Instant parseTime(String raw) {
         try {
             return Times.parse(raw);

@@ -2,7 +2,10 @@ package org.headwater.http;
 
 import com.fasterxml.jackson.databind.JsonNode;
 import io.javalin.http.Context;
+import static org.headwater.store.schema.Tables.RUN;
+
 import java.io.IOException;
+import java.net.URI;
 import java.nio.file.InvalidPathException;
 import java.nio.file.Path;
 import java.time.Instant;
@@ -11,6 +14,8 @@ import java.util.ArrayList;
 import java.util.List;
 import java.util.Set;
 import java.util.regex.Pattern;
+import org.headwater.access.Roots;
+import org.headwater.access.Tokens;
 import org.headwater.ingest.Change;
 import org.headwater.ingest.Observation.RunIo;
 import org.headwater.ingest.Observation.RunReported;
@@ -23,20 +28,60 @@ final class RunRoutes {
     private static final int MAX_IO = 100_000;
 
     private final CatalogHolder catalog;
+    private final Roots roots;
+    private final Access access;
 
-    RunRoutes(CatalogHolder catalog) {
+    RunRoutes(CatalogHolder catalog, Roots roots, Access access) {
         this.catalog = catalog;
+        this.roots = roots;
+        this.access = access;
     }
 
-    /** The answer to a posted run: whether it was new. */
-    record Stored(String runId, boolean created) {
+    /** The answer to a posted run: whether it was new, and the inputs and outputs refused by path. */
+    record Stored(String runId, boolean created, List<Refused> refused) {
+    }
+
+    /** An input or output left out of a run because its path may not enter the catalog. */
+    record Refused(String path, String direction, String reason) {
     }
 
     void post(Context ctx) {
-        RunReported run = parse(ctx.body());
+        RunReported parsed = parse(ctx.body());
+        Path script = Path.of(URI.create(parsed.scriptUri()));
+        roots.refusal(script).ifPresent(reason -> {
+            throw ApiError.forbidden("path_outside_roots", "The script " + script + " is " + reason);
+        });
+        List<RunIo> kept = new ArrayList<>();
+        List<Refused> refused = new ArrayList<>();
+        for (RunIo io : parsed.io()) {
+            Path path = Path.of(URI.create(io.uri()));
+            roots.refusal(path).ifPresentOrElse(
+                    reason -> refused.add(new Refused(path.toString(), io.direction(), reason)),
+                    () -> kept.add(io));
+        }
+        RunReported run = new RunReported(parsed.runId(), parsed.client(), parsed.scriptUri(), parsed.scriptHash(),
+                parsed.gitCommit(), parsed.startedAt(), parsed.endedAt(), parsed.exitCode(), parsed.exception(),
+                parsed.user(), parsed.host(), parsed.arguments(), kept);
+        conflict(run);
         List<Change> changes = catalog.get().ingestor().apply("runtime", List.of(run));
         boolean created = !changes.isEmpty();
-        ctx.status(created ? 201 : 200).json(new Stored(run.runId(), created));
+        for (Refused r : refused) {
+            Tokens.Token token = ctx.attribute(Access.TOKEN);
+            access.audit().record(token == null ? null : token.id(), token == null ? "anonymous" : token.name(),
+                    "run.io_refused", r.path(), 403, ctx.ip(), "run " + run.runId() + ": " + r.reason());
+        }
+        ctx.status(created ? 201 : 200).json(new Stored(run.runId(), created, refused));
+    }
+
+    /** A run id names one run: the same id again with another script or start time is a client bug, not a resend. */
+    private void conflict(RunReported run) {
+        var stored = catalog.get().store().dsl().select(RUN.SCRIPT_URI, RUN.STARTED_AT).from(RUN)
+                .where(RUN.ID.eq(run.runId())).fetchOne();
+        if (stored != null && (!run.scriptUri().equals(stored.value1())
+                || !run.startedAt().equals(stored.value2().toInstant()))) {
+            throw ApiError.conflict("Run '" + run.runId() + "' is already stored for another script or start time;"
+                    + " a resent run must be identical, a new run needs a new run_id");
+        }
     }
 
     static RunReported parse(String body) {

@@ -12,7 +12,9 @@ import java.net.http.HttpResponse;
 import java.nio.file.Path;
 import org.headwater.Catalog;
 import org.headwater.harvest.HarvestProgress;
+import org.headwater.access.Role;
 import org.headwater.testing.TestCatalogs;
+import org.headwater.testing.TestTokens;
 import org.headwater.testing.Workspaces;
 import org.junit.jupiter.api.AfterAll;
 import org.junit.jupiter.api.BeforeAll;
@@ -35,7 +37,10 @@ class ApiServerTest {
         catalog = TestCatalogs.fresh(temp.resolve("catalog"));
         catalog.harvestFolder(Workspaces.demo(), false, HarvestProgress.NONE);
         server = ApiServer.start(catalog, "127.0.0.1", 0);
+        editor = TestTokens.create(catalog, Role.EDITOR);
     }
+
+    static String editor;
 
     @AfterAll
     static void stop() {
@@ -52,7 +57,8 @@ class ApiServerTest {
 
     static Answer send(HttpRequest request) throws IOException, InterruptedException {
         HttpResponse<String> response = HTTP.send(request, HttpResponse.BodyHandlers.ofString());
-        boolean json = response.headers().firstValue("content-type").orElse("").startsWith("application/json");
+        String type = response.headers().firstValue("content-type").orElse("");
+        boolean json = type.startsWith("application/json") || type.startsWith(Problem.MEDIA_TYPE);
         return new Answer(response.statusCode(), json ? JSON.readTree(response.body()) : null, response);
     }
 
@@ -99,15 +105,22 @@ class ApiServerTest {
     void badRequestsGetA4xxWithAMessageAndNeverAStackTrace() throws Exception {
         Answer noQuery = get("/api/search");
         assertThat(noQuery.status()).isEqualTo(400);
-        assertThat(noQuery.body().get("message").asText()).contains("'q' is required");
+        assertThat(noQuery.body().get("detail").asText()).contains("'q' is required");
         Answer badLimit = get("/api/datasets?limit=abc");
         assertThat(badLimit.status()).isEqualTo(400);
-        assertThat(badLimit.body().get("message").asText()).contains("'limit' must be a whole number");
+        assertThat(badLimit.body().get("detail").asText()).contains("'limit' must be a whole number");
         Answer badId = get("/api/datasets/xyz");
         assertThat(badId.status()).isEqualTo(400);
         Answer missing = get("/api/datasets/999999");
         assertThat(missing.status()).isEqualTo(404);
-        assertThat(missing.body().get("error").asText()).isEqualTo("not_found");
+        // expected: RFC 9457 section 3.1, the members type, title, status, detail and instance
+        assertThat(missing.raw().headers().firstValue("content-type").orElse("")).startsWith("application/problem+json");
+        assertThat(missing.body().get("code").asText()).isEqualTo("not_found");
+        assertThat(missing.body().get("status").asInt()).isEqualTo(404);
+        // expected: RFC 9457 section 4.2.1, with type about:blank the title is the status phrase (RFC 9110 15.5.5)
+        assertThat(missing.body().get("type").asText()).isEqualTo("about:blank");
+        assertThat(missing.body().get("title").asText()).isEqualTo("Not Found");
+        assertThat(missing.body().get("instance").asText()).isEqualTo("/api/datasets/999999");
         Answer badTime = get("/api/datasets?as_of=yesterday");
         assertThat(badTime.status()).isEqualTo(400);
         Answer noRoute = get("/api/nothing-here");
@@ -119,7 +132,7 @@ class ApiServerTest {
     void aNoteWrittenThroughTheApiIsStoredAndSearchable() throws Exception {
         long id = get("/api/datasets?match=stations/station_register.csv").body().get("items").get(0).get("id").asLong();
         HttpRequest put = HttpRequest.newBuilder(URI.create(server.url() + "api/datasets/" + id + "/note"))
-                .header("content-type", "application/json")
+                .header("content-type", "application/json").header("authorization", TestTokens.bearer(editor))
                 .PUT(HttpRequest.BodyPublishers.ofString(
                         "{\"description\": \"Register of every sampling station with its river kilometre\","
                                 + " \"tags\": [\"reference\"], \"author\": \"t.vale\"}"))
@@ -130,6 +143,7 @@ class ApiServerTest {
         assertThat(get("/api/search?q=kilometre").body().get("hits").get(0).get("id").asLong()).isEqualTo(id);
 
         Answer notJson = send(HttpRequest.newBuilder(URI.create(server.url() + "api/datasets/" + id + "/note"))
+                .header("content-type", "application/json").header("authorization", TestTokens.bearer(editor))
                 .PUT(HttpRequest.BodyPublishers.ofString("{not json")).build());
         assertThat(notJson.status()).isEqualTo(400);
     }

@@ -13,7 +13,9 @@ import java.util.Map;
 import java.util.concurrent.TimeUnit;
 import org.headwater.Catalog;
 import org.headwater.harvest.HarvestProgress;
+import org.headwater.access.Role;
 import org.headwater.http.ApiServer;
+import org.headwater.testing.TestTokens;
 import org.headwater.store.Views.RunSummary;
 import org.headwater.testing.External;
 import org.headwater.testing.TestCatalogs;
@@ -82,6 +84,7 @@ class PythonConnectorEndToEndTest {
                 ""));
         try (Catalog catalog = TestCatalogs.fresh(temp.resolve("catalog"));
                 ApiServer server = ApiServer.start(catalog, "127.0.0.1", 0)) {
+            String token = TestTokens.create(catalog, Role.HARVESTER);
             catalog.harvestFolder(lake, false, HarvestProgress.NONE);
             String url = server.url().substring(0, server.url().length() - 1);
 
@@ -91,8 +94,8 @@ class PythonConnectorEndToEndTest {
             assertThat(offline.out()).isEqualTo("done 3\n");
             assertThat(catalog.reader().runs(10)).isEmpty();
             // Then the server is reachable: flushing sends the spooled record, exactly once.
-            assertThat(python(lake, Map.of("HEADWATER_URL", url), "-m", "headwater", "flush").exit()).isZero();
-            assertThat(python(lake, Map.of("HEADWATER_URL", url), "-m", "headwater", "flush").exit()).isZero();
+            assertThat(python(lake, Map.of("HEADWATER_URL", url, "HEADWATER_TOKEN", token), "-m", "headwater", "flush").exit()).isZero();
+            assertThat(python(lake, Map.of("HEADWATER_URL", url, "HEADWATER_TOKEN", token), "-m", "headwater", "flush").exit()).isZero();
             List<RunSummary> runs = catalog.reader().runs(10);
             assertThat(runs).hasSize(1);
             assertThat(runs.get(0).exitCode()).isZero();
@@ -128,9 +131,10 @@ class PythonConnectorEndToEndTest {
         Files.writeString(lake.resolve("broken.py"), "open('missing.csv').read()\n");
         try (Catalog catalog = TestCatalogs.fresh(temp.resolve("catalog"));
                 ApiServer server = ApiServer.start(catalog, "127.0.0.1", 0)) {
+            String token = TestTokens.create(catalog, Role.HARVESTER);
             String url = server.url().substring(0, server.url().length() - 1);
             Ran plain = python(lake, Map.of(), "broken.py");
-            Ran captured = python(lake, Map.of("HEADWATER_URL", url), "-m", "headwater", "run", "broken.py");
+            Ran captured = python(lake, Map.of("HEADWATER_URL", url, "HEADWATER_TOKEN", token), "-m", "headwater", "run", "broken.py");
             assertThat(captured.exit()).isEqualTo(plain.exit()).isEqualTo(1);
             assertThat(captured.err()).isEqualTo(plain.err());
             List<RunSummary> runs = catalog.reader().runs(10);

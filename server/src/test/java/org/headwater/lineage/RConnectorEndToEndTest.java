@@ -12,7 +12,9 @@ import java.util.List;
 import java.util.concurrent.TimeUnit;
 import org.headwater.Catalog;
 import org.headwater.harvest.HarvestProgress;
+import org.headwater.access.Role;
 import org.headwater.http.ApiServer;
+import org.headwater.testing.TestTokens;
 import org.headwater.store.Views.RunSummary;
 import org.headwater.testing.External;
 import org.headwater.testing.TestCatalogs;
@@ -26,6 +28,9 @@ class RConnectorEndToEndTest {
     @TempDir
     Path temp;
 
+    /** The harvester token the connector sends. */
+    private static String token;
+
     private static int run(Path dir, Path library, String url, List<String> command) throws IOException, InterruptedException {
         ProcessBuilder pb = new ProcessBuilder(command).directory(dir.toFile()).redirectErrorStream(true)
                 .redirectOutput(dir.resolve("r-output.txt").toFile());
@@ -34,6 +39,7 @@ class RConnectorEndToEndTest {
         pb.environment().put("HEADWATER_SPOOL", dir.resolve("spool.ndjson").toString());
         if (url != null) {
             pb.environment().put("HEADWATER_URL", url);
+            pb.environment().put("HEADWATER_TOKEN", token);
         }
         Process p = pb.start();
         if (!p.waitFor(180, TimeUnit.SECONDS)) {
@@ -72,6 +78,7 @@ class RConnectorEndToEndTest {
                 ""));
         try (Catalog catalog = TestCatalogs.fresh(temp.resolve("catalog"));
                 ApiServer server = ApiServer.start(catalog, "127.0.0.1", 0)) {
+            token = TestTokens.create(catalog, Role.HARVESTER);
             catalog.harvestFolder(lake, false, HarvestProgress.NONE);
             String url = server.url().substring(0, server.url().length() - 1);
             int exit = run(lake, library, url, List.of("Rscript", "-e", "headwater::run('plot_levels.R')"));

@@ -14,7 +14,9 @@ import java.security.MessageDigest;
 import java.util.HexFormat;
 import org.headwater.Catalog;
 import org.headwater.harvest.HarvestProgress;
+import org.headwater.access.Role;
 import org.headwater.http.ApiServer;
+import org.headwater.testing.TestTokens;
 import org.headwater.testing.TestCatalogs;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
@@ -31,9 +33,9 @@ class RunsAndWhenceTest {
         return HexFormat.of().formatHex(MessageDigest.getInstance("SHA-256").digest(bytes));
     }
 
-    static HttpResponse<String> post(ApiServer server, String body) throws Exception {
+    static HttpResponse<String> post(ApiServer server, String token, String body) throws Exception {
         return HTTP.send(HttpRequest.newBuilder(URI.create(server.url() + "api/runs"))
-                .header("content-type", "application/json").POST(HttpRequest.BodyPublishers.ofString(body)).build(),
+                .header("content-type", "application/json").header("authorization", TestTokens.bearer(token)).POST(HttpRequest.BodyPublishers.ofString(body)).build(),
                 HttpResponse.BodyHandlers.ofString());
     }
 
@@ -65,9 +67,10 @@ class RunsAndWhenceTest {
                 figure, png.length, sha256(png));
         try (Catalog catalog = TestCatalogs.fresh(temp.resolve("catalog"));
                 ApiServer server = ApiServer.start(catalog, "127.0.0.1", 0)) {
+            String token = TestTokens.create(catalog, Role.HARVESTER);
             catalog.harvestFolder(lake, false, HarvestProgress.NONE);
-            assertThat(post(server, record).statusCode()).isEqualTo(201);
-            assertThat(post(server, record).statusCode()).isEqualTo(200); // the same run again: stored once
+            assertThat(post(server, token, record).statusCode()).isEqualTo(201);
+            assertThat(post(server, token, record).statusCode()).isEqualTo(200); // the same run again: stored once
             assertThat(catalog.reader().runs(10)).hasSize(1);
 
             // The figure is copied elsewhere and renamed: found by its content.
@@ -98,15 +101,16 @@ class RunsAndWhenceTest {
     void malformedRunRecordsGetA400WithAMessage() throws Exception {
         try (Catalog catalog = TestCatalogs.fresh(temp.resolve("catalog"));
                 ApiServer server = ApiServer.start(catalog, "127.0.0.1", 0)) {
-            assertThat(post(server, "not json").statusCode()).isEqualTo(400);
-            HttpResponse<String> noId = post(server, "{\"script\": {\"path\": \"/x.py\"}, \"started_at\": \"2026-01-01T00:00:00Z\"}");
+            String token = TestTokens.create(catalog, Role.HARVESTER);
+            assertThat(post(server, token, "not json").statusCode()).isEqualTo(400);
+            HttpResponse<String> noId = post(server, token, "{\"script\": {\"path\": \"/x.py\"}, \"started_at\": \"2026-01-01T00:00:00Z\"}");
             assertThat(noId.statusCode()).isEqualTo(400);
             assertThat(noId.body()).contains("'run_id' is required");
-            HttpResponse<String> relative = post(server, "{\"run_id\": \"r1\", \"script\": {\"path\": \"x.py\"},"
+            HttpResponse<String> relative = post(server, token, "{\"run_id\": \"r1\", \"script\": {\"path\": \"x.py\"},"
                     + " \"started_at\": \"2026-01-01T00:00:00Z\"}");
             assertThat(relative.statusCode()).isEqualTo(400);
             assertThat(relative.body()).contains("must be absolute");
-            HttpResponse<String> badTime = post(server, "{\"run_id\": \"r1\", \"script\": {\"path\": \"/x.py\"},"
+            HttpResponse<String> badTime = post(server, token, "{\"run_id\": \"r1\", \"script\": {\"path\": \"/x.py\"},"
                     + " \"started_at\": \"yesterday\"}");
             assertThat(badTime.statusCode()).isEqualTo(400);
             assertThat(catalog.reader().runs(10)).isEmpty();
@@ -147,13 +151,14 @@ class RunsAndWhenceTest {
                 figure, sha256(Files.readAllBytes(figure)));
         try (Catalog catalog = TestCatalogs.fresh(temp.resolve("catalog"));
                 ApiServer server = ApiServer.start(catalog, "127.0.0.1", 0)) {
+            String token = TestTokens.create(catalog, Role.HARVESTER);
             catalog.harvestFolder(lake, false, HarvestProgress.NONE);
             long png = catalog.reader().findDatasets("levels.png").get(0).id();
             long summary = catalog.reader().findDatasets("summary.csv").get(0).id();
             // Before any run: found in the code only.
             assertThat(catalog.reader().dataset(summary, null).orElseThrow().upstream())
                     .extracting(e -> e.corroboration()).containsExactly("static only");
-            assertThat(post(server, record).statusCode()).isEqualTo(201);
+            assertThat(post(server, token, record).statusCode()).isEqualTo(201);
 
             // The run read levels.csv and wrote levels.png: both edges into the figure agree, the static one's
             // confidence combines with the run's (1 - (1 - 1.0)(1 - 1.0) = 1.0). It never wrote summary.csv.

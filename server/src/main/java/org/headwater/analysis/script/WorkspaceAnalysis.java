@@ -14,6 +14,8 @@ import org.headwater.model.Language;
  * scripts they run, then every Python, notebook and R script. Hidden folders are skipped.
  */
 public final class WorkspaceAnalysis {
+    private static final org.slf4j.Logger LOG = org.slf4j.LoggerFactory.getLogger(WorkspaceAnalysis.class);
+
     private final ScriptAnalyzer analyzer = new ScriptAnalyzer();
     private final ShellDriverAnalyzer drivers = new ShellDriverAnalyzer();
 
@@ -23,15 +25,28 @@ public final class WorkspaceAnalysis {
         List<ScriptInvocation> invocations = new ArrayList<>(ctx.invocations());
         for (Path s : scripts) {
             if (Language.ofFileName(s.getFileName().toString()).orElse(null) == Language.SHELL) {
-                invocations.addAll(drivers.analyze(root, s));
+                try {
+                    invocations.addAll(drivers.analyze(root, s));
+                } catch (IOException e) {
+                    skip(s, e);
+                }
             }
         }
         AnalysisContext full = ctx.withInvocations(invocations);
         List<ScriptAnalysis> out = new ArrayList<>();
         for (Path s : scripts) {
-            out.add(analyzer.analyze(root, s, full));
+            try {
+                out.add(analyzer.analyze(root, s, full));
+            } catch (IOException e) {
+                skip(s, e);
+            }
         }
         return out;
+    }
+
+    /** One script that cannot be read (not UTF-8, a notebook that is not JSON) must not cost the others theirs. */
+    private static void skip(Path script, IOException e) {
+        LOG.warn("Script {} not analysed: {}", script, e.getMessage());
     }
 
     private static List<Path> scripts(Path root) throws IOException {

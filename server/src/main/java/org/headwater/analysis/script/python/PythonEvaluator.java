@@ -26,6 +26,13 @@ import org.headwater.analysis.script.value.Values;
  */
 public final class PythonEvaluator {
     static final int MAX_CALL_DEPTH = 8;
+    /**
+     * Expressions evaluated per analysis: depth alone does not bound functions that call each other several
+     * times each (b^depth bodies; mutated scripts found by ScriptFuzzTest ran for minutes). Past it every
+     * expression is unknown, so the analysis ends with what it found so far.
+     */
+    static final int MAX_STEPS = 200_000;
+    private int steps;
 
     private final RunSetting run;
     private final Findings findings;
@@ -414,6 +421,9 @@ public final class PythonEvaluator {
     // ---- expressions
 
     Value eval(Node e, Scope scope) {
+        if (++steps > MAX_STEPS) {
+            return new Value.Unknown("analysis stopped after " + MAX_STEPS + " steps");
+        }
         if (e == null) {
             return new Value.Unknown("missing expression");
         }

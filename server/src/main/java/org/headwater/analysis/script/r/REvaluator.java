@@ -23,6 +23,13 @@ import org.headwater.analysis.script.value.Values;
  */
 public final class REvaluator {
     static final int MAX_CALL_DEPTH = 8;
+    /**
+     * Expressions evaluated per analysis: depth alone does not bound functions that call each other several
+     * times each (b^depth bodies; mutated scripts found by ScriptFuzzTest ran for minutes). Past it every
+     * expression is unknown, so the analysis ends with what it found so far.
+     */
+    static final int MAX_STEPS = 200_000;
+    private int steps;
     static final String FUNCTION = "function";
     static final String SERIES = "r.column";
 
@@ -85,6 +92,9 @@ public final class REvaluator {
     }
 
     Value eval(Node e, Scope scope) {
+        if (++steps > MAX_STEPS) {
+            return new Value.Unknown("analysis stopped after " + MAX_STEPS + " steps");
+        }
         if (e == null) {
             return new Value.Nothing();
         }
