@@ -27,8 +27,14 @@ public record StoreConfig(String jdbcUrl, String user, String password) {
         return new StoreConfig("jdbc:h2:mem:" + name + ";DB_CLOSE_DELAY=-1", "sa", "");
     }
 
+    /** The URL without its query part, where drivers accept passwords; safe to log and show. */
+    public String redactedUrl() {
+        int query = jdbcUrl.indexOf('?');
+        return query < 0 ? jdbcUrl : jdbcUrl.substring(0, query) + "?…";
+    }
+
     @Override
     public String toString() {
-        return "StoreConfig[" + jdbcUrl + ", user=" + user + "]";
+        return "StoreConfig[" + redactedUrl() + ", user=" + user + "]";
     }
 }
