@@ -31,7 +31,7 @@ final class ServeCommand implements Callable<Integer> {
     public Integer call() throws InterruptedException {
         // The store opens while the HTTP server starts: the two are the bulk of start-up time.
         serveUntilStopped(CompletableFuture.supplyAsync(catalog::open), listen.host, listen.port, spec.commandLine().getOut(),
-                server -> "Headwater is serving " + catalog.dataDir.toAbsolutePath().normalize() + " at " + server.url(),
+                server -> "Headwater is serving " + catalog.describe() + " at " + server.url(),
                 () -> { });
         return Main.OK;
     }

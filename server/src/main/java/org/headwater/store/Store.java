@@ -4,6 +4,7 @@ import com.zaxxer.hikari.HikariConfig;
 import com.zaxxer.hikari.HikariDataSource;
 import java.sql.Connection;
 import java.sql.SQLException;
+import java.util.function.ToLongFunction;
 import javax.sql.DataSource;
 import org.flywaydb.core.Flyway;
 import org.h2.jdbcx.JdbcConnectionPool;
@@ -136,9 +137,80 @@ public final class Store implements AutoCloseable {
         }
     }
 
-    /** A connection outside the pool's transactions, for locks held as long as a harvest lasts. */
-    Connection dedicatedConnection() throws SQLException {
-        return dataSource.getConnection();
+    /** The first key of the session advisory locks that mark work in progress (two-int key space). */
+    static final int CLAIM_SPACE = 0x4857;
+
+    /**
+     * Inserts the row of a piece of work (a harvest) and marks it as being done by this process until the
+     * returned claim is closed or the process dies. On PostgreSQL the mark is a session advisory lock on a
+     * connection of its own, taken before the row commits (so no other process ever sees the row
+     * unclaimed) and dropped by the server with the connection when the process is killed. On H2 the
+     * process owns the file anyway.
+     *
+     * @param insert inserts the row and returns its id
+     */
+    public Claim claimNew(ToLongFunction<DSLContext> insert) {
+        if (dialect != StoreDialect.POSTGRESQL) {
+            return new Claim(insert.applyAsLong(dsl), () -> { });
+        }
+        try {
+            Connection c = dataSource.getConnection();
+            try {
+                c.setAutoCommit(false);
+                long id = insert.applyAsLong(DSL.using(c, dialect.jooq(), dsl.settings()));
+                advisory(c, "pg_advisory_lock", id);
+                c.commit();
+                c.setAutoCommit(true);
+                return new Claim(id, () -> {
+                    try (c) {
+                        advisory(c, "pg_advisory_unlock", id);
+                    } catch (SQLException e) {
+                        // Closing the connection drops the lock anyway.
+                    }
+                });
+            } catch (SQLException | RuntimeException e) {
+                c.rollback();
+                c.close();
+                throw e;
+            }
+        } catch (SQLException e) {
+            throw new StoreException("Cannot record new work in the store", e);
+        }
+    }
+
+    private static boolean advisory(Connection c, String function, long workId) throws SQLException {
+        try (var s = c.prepareStatement("select " + function + "(?, ?)")) {
+            s.setInt(1, CLAIM_SPACE);
+            s.setInt(2, Math.toIntExact(workId));
+            try (var r = s.executeQuery()) {
+                // pg_advisory_lock returns void (no Boolean), the try and unlock functions true or false.
+                return r.next() && r.getObject(1) instanceof Boolean b && b;
+            }
+        }
+    }
+
+    /** Whether no live process holds a {@link #claimNew claim} on this work. */
+    public boolean unclaimed(long workId) {
+        if (dialect != StoreDialect.POSTGRESQL) {
+            return true;
+        }
+        try (Connection c = dataSource.getConnection()) {
+            boolean free = advisory(c, "pg_try_advisory_lock", workId);
+            if (free) {
+                advisory(c, "pg_advisory_unlock", workId);
+            }
+            return free;
+        } catch (SQLException e) {
+            throw new StoreException("Cannot look at work " + workId + " in the store", e);
+        }
+    }
+
+    /** Work this process is doing: its row id, and closing it says the work is over. */
+    public record Claim(long id, Runnable release) implements AutoCloseable {
+        @Override
+        public void close() {
+            release.run();
+        }
     }
 
     @Override
