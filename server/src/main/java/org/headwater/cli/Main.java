@@ -8,7 +8,8 @@ import picocli.CommandLine.Command;
         description = "A lineage-aware catalog of a team's files, tables and scripts.",
         subcommands = {ServeCommand.class, HarvestCommand.class, SearchCommand.class, ShowCommand.class,
                 ReindexCommand.class, LineageCommand.class, ReadsCommand.class, WhenceCommand.class, SniffCommand.class,
-                DemoCommand.class, CommandLine.HelpCommand.class})
+                DemoCommand.class, BackupCommand.class, RestoreCommand.class, ExportCommand.class,
+                ImportCommand.class, CommandLine.HelpCommand.class})
 public final class Main implements Runnable {
 
     /** Exit codes of every command. */
