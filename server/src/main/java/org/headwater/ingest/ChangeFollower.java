@@ -118,9 +118,11 @@ public final class ChangeFollower implements AutoCloseable {
     @Override
     public void close() {
         if (timer != null) {
-            timer.shutdownNow();
+            // No interrupt: a poll interrupted inside the index's file I/O would close Lucene's channels
+            // and leave its writer unusable. Shutting down cancels the next polls; the current one finishes.
+            timer.shutdown();
             try {
-                timer.awaitTermination(5, TimeUnit.SECONDS);
+                timer.awaitTermination(60, TimeUnit.SECONDS);
             } catch (InterruptedException e) {
                 Thread.currentThread().interrupt();
             }

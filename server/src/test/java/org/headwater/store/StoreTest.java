@@ -56,16 +56,12 @@ class StoreTest {
             // expected: ISO/IEC 9075-11 (information_schema.columns.data_type), which H2 and PostgreSQL both
             // implement; V1 declares change_log.changed_at "timestamp with time zone", seq "bigint",
             // dataset_state.row_count_exact "boolean" and lineage_edge.confidence "double precision".
-            var columns = org.jooq.impl.DSL.table(org.jooq.impl.DSL.name("information_schema", "columns"));
-            var tableName = org.jooq.impl.DSL.field(org.jooq.impl.DSL.name("table_name"), String.class);
-            var columnName = org.jooq.impl.DSL.field(org.jooq.impl.DSL.name("column_name"), String.class);
-            var dataType = org.jooq.impl.DSL.field(org.jooq.impl.DSL.name("data_type"), String.class);
+            // Plain SQL: the store renders no schema names, and information_schema is one.
             java.util.Map<String, String> types = new java.util.TreeMap<>();
-            for (var r : store.dsl().select(tableName, columnName, dataType).from(columns)
-                    .where(org.jooq.impl.DSL.lower(tableName).in("change_log", "dataset_state", "lineage_edge"))
-                    .fetch()) {
-                types.put((r.value1() + "." + r.value2()).toLowerCase(java.util.Locale.ROOT),
-                        r.value3().toLowerCase(java.util.Locale.ROOT));
+            for (var r : store.dsl().resultQuery("select table_name, column_name, data_type from information_schema.columns"
+                    + " where lower(table_name) in ('change_log', 'dataset_state', 'lineage_edge')").fetch()) {
+                types.put((r.get(0, String.class) + "." + r.get(1, String.class)).toLowerCase(java.util.Locale.ROOT),
+                        r.get(2, String.class).toLowerCase(java.util.Locale.ROOT));
             }
             assertThat(types).containsEntry("change_log.changed_at", "timestamp with time zone")
                     .containsEntry("change_log.seq", "bigint")
