@@ -13,8 +13,8 @@ import picocli.CommandLine.Spec;
 
 /** {@code headwater backup FILE}: a consistent copy of the embedded store in a zip file. */
 @Command(name = "backup", mixinStandardHelpOptions = true,
-        description = {"Copy the embedded catalog database to a zip file (H2's BACKUP TO; consistent while",
-                "other commands read). The search index is not copied: restore rebuilds it.",
+        description = {"Copy the embedded catalog database to a consistent zip file (H2's BACKUP TO); stop",
+                "'serve' first, H2 lets one process open the file. The search index is not copied: restore rebuilds it.",
                 "For a PostgreSQL store use pg_dump instead (see README)."})
 final class BackupCommand implements Callable<Integer> {
     @Parameters(index = "0", paramLabel = "FILE", description = "The zip file to write.")
