@@ -5,6 +5,7 @@ import java.io.UncheckedIOException;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.time.Clock;
+import java.time.Duration;
 import org.headwater.analysis.ScriptLineage;
 import org.headwater.checks.FreshnessChecks;
 import org.headwater.checks.PolicySync;
@@ -15,6 +16,7 @@ import org.headwater.harvest.StorageBackend;
 import org.headwater.harvest.format.FormatRegistry;
 import org.headwater.harvest.jdbc.DatabaseHarvester;
 import org.headwater.harvest.jdbc.DatabaseSource;
+import org.headwater.ingest.ChangeFollower;
 import org.headwater.ingest.HarvestJournal;
 import org.headwater.ingest.Ingestor;
 import org.headwater.ingest.Sources;
@@ -38,8 +40,12 @@ public final class Catalog implements AutoCloseable {
     private final SearchIndex index;
     private final LineageGraph lineage;
     private final Clock clock;
+    private final ChangeFollower follower;
 
-    private Catalog(Path dataDir, Store store, SearchIndex index, Clock clock) {
+    /** How often a catalog on a shared store looks for changes other processes made. */
+    public static final Duration FOLLOW_INTERVAL = Duration.ofSeconds(1);
+
+    private Catalog(Path dataDir, Store store, SearchIndex index, Clock clock, long seen, Duration followInterval) {
         this.dataDir = dataDir;
         this.store = store;
         this.reader = new CatalogReader(store);
@@ -56,6 +62,10 @@ public final class Catalog implements AutoCloseable {
         var recorded = new org.headwater.checks.RecordedStates(store);
         ingestor.addListener(recorded);
         index.useFreshness(recorded);
+        // On a shared store, other processes write too: follow the change log from where the index and
+        // the graph were loaded (re-delivering a change is harmless, missing one is not).
+        this.follower = ChangeFollower.start(store, ingestor, seen, store.shared() ? followInterval : null);
+        journal.markInterrupted();
     }
 
     /** Opens (creating if needed) the catalog kept in {@code dataDir}: {@code catalog.mv.db} and {@code index/}. */
@@ -65,6 +75,14 @@ public final class Catalog implements AutoCloseable {
 
     /** Opens a catalog whose store is described by {@code storeConfig}; the index lives in {@code dataDir}. */
     public static Catalog open(Path dataDir, StoreConfig storeConfig, Clock clock) {
+        return open(dataDir, storeConfig, clock, FOLLOW_INTERVAL);
+    }
+
+    /**
+     * Opens a catalog; on a shared store it polls the change log every {@code followInterval} (null: only
+     * when {@link ChangeFollower#poll} is called, for tests that want to decide when).
+     */
+    public static Catalog open(Path dataDir, StoreConfig storeConfig, Clock clock, Duration followInterval) {
         Path dir = dataDir.toAbsolutePath().normalize();
         try {
             Files.createDirectories(dir);
@@ -73,8 +91,14 @@ public final class Catalog implements AutoCloseable {
         }
         Store store = Store.open(storeConfig);
         try {
+            long seen = new CatalogReader(store).lastChangeSeq();
             SearchIndex index = SearchIndex.open(dir.resolve("index"), new CatalogReader(store));
-            return new Catalog(dir, store, index, clock);
+            try {
+                return new Catalog(dir, store, index, clock, seen, followInterval);
+            } catch (RuntimeException e) {
+                index.close();
+                throw e;
+            }
         } catch (RuntimeException e) {
             store.close();
             throw e;
@@ -173,6 +197,16 @@ public final class Catalog implements AutoCloseable {
         return lineage;
     }
 
+    /** What brings in changes other processes made to a shared store. */
+    public ChangeFollower follower() {
+        return follower;
+    }
+
+    /** The harvest records. */
+    public HarvestJournal journal() {
+        return journal;
+    }
+
     /** The underlying store, for tools and tests that need to look below the reader. */
     public Store store() {
         return store;
@@ -181,6 +215,7 @@ public final class Catalog implements AutoCloseable {
     @Override
     public void close() {
         try {
+            follower.close();
             index.close();
         } finally {
             store.close();

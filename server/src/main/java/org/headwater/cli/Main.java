@@ -8,7 +8,7 @@ import picocli.CommandLine.Command;
         description = "A lineage-aware catalog of a team's files, tables and scripts.",
         subcommands = {ServeCommand.class, HarvestCommand.class, SearchCommand.class, ShowCommand.class,
                 ReindexCommand.class, LineageCommand.class, ReadsCommand.class, WhenceCommand.class, SniffCommand.class,
-                ExportCommand.class,
+                ExportCommand.class, ImportCommand.class, BackupCommand.class, RestoreCommand.class,
                 CheckCommand.class,
                 UpstreamCommand.class, DownstreamCommand.class, ImpactCommand.class, OwnCommand.class,
                 TokenCommand.class, AuditCommand.class, DemoCommand.class, CommandLine.HelpCommand.class})

@@ -76,7 +76,7 @@ final class ServeCommand implements Callable<Integer> {
                 .withRate(rateLimit, 4 * rateLimit);
         // The store opens while the HTTP server starts: the two are the bulk of start-up time.
         serveUntilStopped(CompletableFuture.supplyAsync(catalog::open), listen.host, listen.port, settings, out,
-                server -> "Headwater is serving " + catalog.dataDir.toAbsolutePath().normalize() + " at " + server.url(),
+                server -> "Headwater is serving " + catalog.describe() + " at " + server.url(),
                 open -> {
                     AutoCloseable checks = period == null ? () -> { }
                             : org.headwater.checks.CheckSchedule.start(open::freshness, period, hook);

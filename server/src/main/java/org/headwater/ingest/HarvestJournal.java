@@ -6,12 +6,17 @@ import static org.headwater.store.schema.Tables.HARVEST_ERROR;
 import java.time.Clock;
 import java.time.OffsetDateTime;
 import java.time.ZoneOffset;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Map;
+import java.util.concurrent.ConcurrentHashMap;
 import org.headwater.store.Store;
 
 /**
  * Keeps the record of each harvest: when it ran, what it counted, what it could not read. These rows
  * describe the harvesting, not the catalog's content, so they are written directly rather than as
- * observations; a harvest that dies leaves a row in state {@code running}, which says so honestly.
+ * observations. A harvest that dies leaves a row in state {@code running}; the next catalog to open the
+ * store marks it {@code interrupted} unless a live process still claims it ({@link Store#claim}).
  */
 public final class HarvestJournal {
     /** Harvest outcomes as stored. */
@@ -19,9 +24,12 @@ public final class HarvestJournal {
     public static final String OK = "ok";
     public static final String WITH_ERRORS = "with_errors";
     public static final String FAILED = "failed";
+    /** Left {@code running} by a process that died; set when a catalog opens. */
+    public static final String INTERRUPTED = "interrupted";
 
     private final Store store;
     private final Clock clock;
+    private final Map<Long, Store.Claim> claims = new ConcurrentHashMap<>();
 
     public HarvestJournal(Store store, Clock clock) {
         this.store = store;
@@ -29,12 +37,37 @@ public final class HarvestJournal {
     }
 
     public long start(long sourceId) {
-        return store.dsl().insertInto(HARVEST)
+        Store.Claim claim = store.claimNew(db -> db.insertInto(HARVEST)
                 .set(HARVEST.SOURCE_ID, sourceId)
                 .set(HARVEST.STARTED_AT, now())
                 .set(HARVEST.STATUS, RUNNING)
                 .returningResult(HARVEST.ID)
-                .fetchOne(HARVEST.ID);
+                .fetchOne(HARVEST.ID));
+        claims.put(claim.id(), claim);
+        return claim.id();
+    }
+
+    /**
+     * Marks as {@code interrupted} every harvest left {@code running} by a process that is gone.
+     *
+     * @return the ids marked
+     */
+    public List<Long> markInterrupted() {
+        List<Long> marked = new ArrayList<>();
+        for (long id : store.dsl().select(HARVEST.ID).from(HARVEST).where(HARVEST.STATUS.eq(RUNNING))
+                .orderBy(HARVEST.ID).fetch(HARVEST.ID)) {
+            if (!claims.containsKey(id) && store.unclaimed(id)) {
+                int updated = store.dsl().update(HARVEST)
+                        .set(HARVEST.STATUS, INTERRUPTED)
+                        .set(HARVEST.FINISHED_AT, now())
+                        .where(HARVEST.ID.eq(id)).and(HARVEST.STATUS.eq(RUNNING))
+                        .execute();
+                if (updated == 1) {
+                    marked.add(id);
+                }
+            }
+        }
+        return marked;
     }
 
     public void error(long harvestId, String uri, String kind, String message) {
@@ -65,6 +98,10 @@ public final class HarvestJournal {
                 .set(HARVEST.ERRORS, counts.errors())
                 .where(HARVEST.ID.eq(harvestId))
                 .execute();
+        Store.Claim claim = claims.remove(harvestId);
+        if (claim != null) {
+            claim.close();
+        }
     }
 
     /** Counts errors found after a harvest's files were done (its policy file), which make it one with errors. */
@@ -77,6 +114,6 @@ public final class HarvestJournal {
     }
 
     private OffsetDateTime now() {
-        return OffsetDateTime.ofInstant(clock.instant(), ZoneOffset.UTC);
+        return OffsetDateTime.ofInstant(clock.instant().truncatedTo(java.time.temporal.ChronoUnit.MICROS), ZoneOffset.UTC);
     }
 }

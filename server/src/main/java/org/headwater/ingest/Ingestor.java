@@ -50,7 +50,8 @@ public final class Ingestor {
 
     /**
      * Applies a batch. Batches are serialised: two writers never interleave inside the catalog, which
-     * keeps "compare with the current row, then close it" free of races without database-specific locks.
+     * keeps "compare with the current row, then close it" free of races. Within a process this method is
+     * synchronised; on a shared store {@link Store#lockForWriting} also makes other processes wait.
      *
      * @param origin who sent the batch, for the change log (for example {@code harvest:12} or {@code api})
      * @return the changes the batch made; empty when everything was already known
@@ -59,14 +60,23 @@ public final class Ingestor {
         if (batch.isEmpty()) {
             return List.of();
         }
-        OffsetDateTime now = OffsetDateTime.ofInstant(clock.instant().truncatedTo(ChronoUnit.MICROS), ZoneOffset.UTC);
         List<Change> changes = store.dsl().transactionResult(configuration -> {
+            store.lockForWriting(configuration.dsl());
+            // Taken once the lock is held, so that a batch that waited for another process's batch is
+            // also later in time than it. Microseconds: PostgreSQL keeps no finer timestamps.
+            OffsetDateTime now = OffsetDateTime.ofInstant(clock.instant().truncatedTo(ChronoUnit.MICROS),
+                    ZoneOffset.UTC);
             Tx tx = new Tx(configuration.dsl(), now, origin);
             for (Observation observation : batch) {
                 dispatch(tx, observation);
             }
             return List.copyOf(tx.changes());
         });
+        notifyListeners(changes);
+        return changes;
+    }
+
+    private void notifyListeners(List<Change> changes) {
         if (!changes.isEmpty()) {
             for (ChangeListener listener : listeners) {
                 try {
@@ -78,7 +88,14 @@ public final class Ingestor {
                 }
             }
         }
-        return changes;
+    }
+
+    /**
+     * Hands changes that another process committed to this process's listeners. It holds the same monitor
+     * as {@link #apply}, so a listener never applies an older re-read after a newer one.
+     */
+    public synchronized void deliver(List<Change> changes) {
+        notifyListeners(changes);
     }
 
     // Java 17 has no pattern switch; the sealed interface still makes a forgotten kind a visible gap here.

@@ -13,6 +13,7 @@ import org.apache.lucene.analysis.TokenStream;
 import org.apache.lucene.analysis.tokenattributes.CharTermAttribute;
 import org.headwater.Catalog;
 import org.headwater.harvest.HarvestProgress;
+import org.headwater.testing.TestCatalogs;
 import org.headwater.testing.Workspaces;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
@@ -47,7 +48,7 @@ class SearchIndexTest {
 
     @Test
     void findsTheNitrateDatasetFirstAndADatasetByAWordOfOneOfItsColumns() throws IOException {
-        try (Catalog catalog = Catalog.open(temp.resolve("catalog"))) {
+        try (Catalog catalog = TestCatalogs.reopenable(temp.resolve("catalog"))) {
             catalog.harvestFolder(Workspaces.demo(), false, HarvestProgress.NONE);
 
             assertThat(catalog.index().search("nitrate", null, 5).get(0).name()).isEqualTo("lab/nitrate_results_2025.csv");
@@ -65,7 +66,7 @@ class SearchIndexTest {
     void aMissingOrDamagedIndexIsRebuiltFromTheStoreAtOpen() throws IOException {
         Path dataDir = temp.resolve("catalog");
         int documents;
-        try (Catalog catalog = Catalog.open(dataDir)) {
+        try (Catalog catalog = TestCatalogs.reopenable(dataDir)) {
             catalog.harvestFolder(Workspaces.demo(), false, HarvestProgress.NONE);
             documents = catalog.index().documentCount();
         }
@@ -77,7 +78,7 @@ class SearchIndexTest {
                 }
             }
         }
-        try (Catalog catalog = Catalog.open(dataDir)) {
+        try (Catalog catalog = TestCatalogs.reopenable(dataDir)) {
             assertThat(catalog.index().documentCount()).isEqualTo(documents).isEqualTo(162); // 16 file datasets, 5 SQL tables and views, 8 scripts, 133 columns
             assertThat(catalog.index().search("nitrate", null, 1).get(0).name()).isEqualTo("lab/nitrate_results_2025.csv");
         }
@@ -89,18 +90,18 @@ class SearchIndexTest {
         Files.writeString(lake.resolve("first.csv"), "a\n1\n");
         Path dataDir = temp.resolve("catalog");
         Path staleIndex = temp.resolve("stale-index");
-        try (Catalog catalog = Catalog.open(dataDir)) {
+        try (Catalog catalog = TestCatalogs.reopenable(dataDir)) {
             catalog.harvestFolder(lake, false, HarvestProgress.NONE);
         }
         copyTree(dataDir.resolve("index"), staleIndex);
         Files.writeString(lake.resolve("second_reservoir.csv"), "b\n2\n");
-        try (Catalog catalog = Catalog.open(dataDir)) {
+        try (Catalog catalog = TestCatalogs.reopenable(dataDir)) {
             catalog.harvestFolder(lake, false, HarvestProgress.NONE);
         }
         // Put back the index as it was before the second harvest: the store is ahead of it now.
         deleteTree(dataDir.resolve("index"));
         copyTree(staleIndex, dataDir.resolve("index"));
-        try (Catalog catalog = Catalog.open(dataDir)) {
+        try (Catalog catalog = TestCatalogs.reopenable(dataDir)) {
             assertThat(catalog.index().absorbedSeq()).isEqualTo(catalog.reader().lastChangeSeq());
             assertThat(catalog.index().search("reservoir", "file", 5)).extracting(SearchHit::name)
                     .containsExactly("second_reservoir.csv");

@@ -9,6 +9,7 @@ import java.util.List;
 import java.util.regex.Matcher;
 import java.util.regex.Pattern;
 import java.util.stream.Stream;
+import org.headwater.testing.TestCatalogs;
 import org.headwater.testing.Workspaces;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
@@ -32,7 +33,7 @@ class StoreTest {
 
     @Test
     void reopeningAMigratedCatalogKeepsItsContentAndSchemaHistory() {
-        StoreConfig config = StoreConfig.embedded(temp);
+        StoreConfig config = TestCatalogs.persistentStore(temp);
         try (Store store = Store.open(config)) {
             store.dsl().insertInto(org.headwater.store.schema.Tables.OWNER)
                     .set(org.headwater.store.schema.Tables.OWNER.NAME, "hydro-team")
@@ -47,5 +48,52 @@ class StoreTest {
                     org.jooq.impl.DSL.condition("\"version\" = '1'"));
             assertThat(applied).isEqualTo(1);
         }
+    }
+
+    @Test
+    void everyMigratedColumnHasTheStandardTypeItsMigrationNames() throws Exception {
+        try (Store store = Store.open(TestCatalogs.freshStore("types"))) {
+            // expected: ISO/IEC 9075-11 (information_schema.columns.data_type), which H2 and PostgreSQL both
+            // implement; V1 declares change_log.changed_at "timestamp with time zone", seq "bigint",
+            // dataset_state.row_count_exact "boolean" and lineage_edge.confidence "double precision".
+            // Plain SQL: the store renders no schema names, and information_schema is one.
+            java.util.Map<String, String> types = new java.util.TreeMap<>();
+            for (var r : store.dsl().resultQuery("select table_name, column_name, data_type from information_schema.columns"
+                    + " where lower(table_name) in ('change_log', 'dataset_state', 'lineage_edge')").fetch()) {
+                types.put((r.get(0, String.class) + "." + r.get(1, String.class)).toLowerCase(java.util.Locale.ROOT),
+                        r.get(2, String.class).toLowerCase(java.util.Locale.ROOT));
+            }
+            assertThat(types).containsEntry("change_log.changed_at", "timestamp with time zone")
+                    .containsEntry("change_log.seq", "bigint")
+                    .containsEntry("dataset_state.row_count_exact", "boolean")
+                    .containsEntry("lineage_edge.confidence", "double precision");
+        }
+    }
+
+    @Test
+    void aTimestampComesBackWithTheMicrosecondsItWasWrittenWith() {
+        try (Store store = Store.open(TestCatalogs.freshStore("micros"))) {
+            // expected: PostgreSQL docs, "Date/Time Types": timestamps have a resolution of 1 microsecond;
+            // the ingestion path truncates to microseconds so that H2 (nanoseconds) keeps the same value.
+            var t = java.time.OffsetDateTime.parse("2026-03-04T05:06:07.123456Z");
+            long id = store.dsl().insertInto(org.headwater.store.schema.Tables.SOURCE)
+                    .set(org.headwater.store.schema.Tables.SOURCE.NAME, "tidepool")
+                    .set(org.headwater.store.schema.Tables.SOURCE.KIND, "folder")
+                    .set(org.headwater.store.schema.Tables.SOURCE.ROOT_URI, "file:///srv/tidepool/")
+                    .set(org.headwater.store.schema.Tables.SOURCE.CREATED_AT, t)
+                    .returningResult(org.headwater.store.schema.Tables.SOURCE.ID).fetchOne().value1();
+            var back = store.dsl().select(org.headwater.store.schema.Tables.SOURCE.CREATED_AT)
+                    .from(org.headwater.store.schema.Tables.SOURCE)
+                    .where(org.headwater.store.schema.Tables.SOURCE.ID.eq(id)).fetchOne().value1();
+            assertThat(back.toInstant()).isEqualTo(t.toInstant());
+        }
+    }
+
+    @Test
+    void anUnsupportedStoreUrlIsRefusedWithTheUrlsThatWork() {
+        assertThat(org.junit.jupiter.api.Assertions.assertThrows(StoreException.class,
+                () -> Store.open(new StoreConfig("jdbc:sqlite:/tmp/x.db?password=hunter2", "u", "p"))))
+                .hasMessageContaining("jdbc:postgresql://HOST:PORT/DATABASE")
+                .hasMessageNotContaining("hunter2");
     }
 }
