@@ -13,7 +13,7 @@ import java.util.stream.Stream;
 /**
  * Mutated inputs for fuzz tests: real files changed by a few random edits (bit flips, byte changes,
  * insertions, deletions, repeats, truncation), the classic mutation operators of coverage-free fuzzers.
- * The same seed gives the same bytes, so a failing case found by jqwik can be replayed.
+ * The same seed gives the same bytes, so a failing fuzz case can be replayed from its seed.
  */
 public final class Mutations {
     private Mutations() {

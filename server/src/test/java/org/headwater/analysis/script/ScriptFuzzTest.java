@@ -10,18 +10,16 @@ import java.nio.file.Path;
 import java.time.Duration;
 import java.util.ArrayList;
 import java.util.List;
-import net.jqwik.api.Arbitraries;
-import net.jqwik.api.Arbitrary;
-import net.jqwik.api.ForAll;
-import net.jqwik.api.Property;
-import net.jqwik.api.Provide;
-import net.jqwik.api.lifecycle.AfterContainer;
-import net.jqwik.api.lifecycle.BeforeContainer;
 import org.headwater.analysis.sql.SchemaLookup;
 import org.headwater.analysis.sql.SqlLineageAnalyzer;
+import org.headwater.testing.Fuzz;
 import org.headwater.testing.Mutations;
 import org.headwater.testing.Workspaces;
+import org.junit.jupiter.api.AfterAll;
 import org.junit.jupiter.api.Assertions;
+import org.junit.jupiter.api.BeforeAll;
+import org.junit.jupiter.api.DynamicTest;
+import org.junit.jupiter.api.TestFactory;
 
 /**
  * Mutated real scripts (Python, R, R Markdown, notebooks, shell, SQL) for the script analysers: each
@@ -42,7 +40,7 @@ class ScriptFuzzTest {
         }
     }
 
-    @BeforeContainer
+    @BeforeAll
     static void seeds() throws IOException {
         Path root = Workspaces.repoRoot();
         List<Path> files = new ArrayList<>(Mutations.files(root.resolve("server/src/test/resources/scripts"),
@@ -54,25 +52,24 @@ class ScriptFuzzTest {
         workspace = Files.createTempDirectory("headwater-script-fuzz");
     }
 
-    @AfterContainer
+    @AfterAll
     static void clean() throws IOException {
         try (var walk = Files.walk(workspace)) {
             walk.sorted(java.util.Comparator.reverseOrder()).forEach(p -> p.toFile().delete());
         }
     }
 
-    @Provide
-    Arbitrary<Seed> seed() {
-        return Arbitraries.of(SEEDS).filter(s -> !s.name().endsWith(".sql"));
+    private static List<Seed> seeds(boolean sql) {
+        return SEEDS.stream().filter(s -> s.name().endsWith(".sql") == sql).toList();
     }
 
-    @Provide
-    Arbitrary<Seed> sql() {
-        return Arbitraries.of(SEEDS).filter(s -> s.name().endsWith(".sql"));
+    @TestFactory
+    java.util.stream.Stream<DynamicTest> mutatedScriptsAreAnalysedOrRefusedAsNotUtf8() {
+        return Fuzz.cases("mutated script", 250, 3_000_000L, random ->
+                analyseMutated(Fuzz.pick(random, seeds(false)), random.nextLong()));
     }
 
-    @Property(tries = 250)
-    void mutatedScriptsAreAnalysedOrRefusedAsNotUtf8(@ForAll("seed") Seed seed, @ForAll long noise) throws Exception {
+    private static void analyseMutated(Seed seed, long noise) throws IOException {
         Path file = workspace.resolve(seed.name());
         Files.write(file, Mutations.mutate(seed.bytes(), noise));
         Assertions.assertTimeoutPreemptively(BUDGET, () -> {
@@ -87,8 +84,13 @@ class ScriptFuzzTest {
         }, () -> seed.name() + " mutated with " + noise + " took longer than " + BUDGET);
     }
 
-    @Property(tries = 150)
-    void mutatedSqlIsAnalysedWithoutAnException(@ForAll("sql") Seed seed, @ForAll long noise) {
+    @TestFactory
+    java.util.stream.Stream<DynamicTest> mutatedSqlIsAnalysedWithoutAnException() {
+        return Fuzz.cases("mutated SQL", 150, 4_000_000L, random ->
+                analyseMutatedSql(Fuzz.pick(random, seeds(true)), random.nextLong()));
+    }
+
+    private static void analyseMutatedSql(Seed seed, long noise) {
         String text = new String(Mutations.mutate(seed.bytes(), noise), StandardCharsets.UTF_8);
         Assertions.assertTimeoutPreemptively(BUDGET, () ->
                 assertThat(new SqlLineageAnalyzer().analyze(text, SchemaLookup.none())).isNotNull(),

@@ -8,17 +8,15 @@ import java.nio.file.Path;
 import java.time.Duration;
 import java.util.ArrayList;
 import java.util.List;
-import net.jqwik.api.Arbitraries;
-import net.jqwik.api.Arbitrary;
-import net.jqwik.api.ForAll;
-import net.jqwik.api.Property;
-import net.jqwik.api.Provide;
-import net.jqwik.api.constraints.Size;
-import net.jqwik.api.lifecycle.BeforeContainer;
+import java.util.stream.Stream;
 import org.apache.parquet.hadoop.metadata.CompressionCodecName;
+import org.headwater.testing.Fuzz;
 import org.headwater.testing.Mutations;
 import org.headwater.testing.Workspaces;
 import org.junit.jupiter.api.Assertions;
+import org.junit.jupiter.api.BeforeAll;
+import org.junit.jupiter.api.DynamicTest;
+import org.junit.jupiter.api.TestFactory;
 
 /**
  * Random and mutated bytes for every format reader (CSV family, JSON, NDJSON, Parquet footers, PNG, SVG,
@@ -38,7 +36,7 @@ class ReaderFuzzTest {
         }
     }
 
-    @BeforeContainer
+    @BeforeAll
     static void seeds() throws Exception {
         Path root = Workspaces.repoRoot();
         List<Path> files = new ArrayList<>();
@@ -61,11 +59,6 @@ class ReaderFuzzTest {
         Files.delete(parquet);
     }
 
-    @Provide
-    Arbitrary<Seed> seed() {
-        return Arbitraries.of(SEEDS);
-    }
-
     static void readWithinBudget(String name, byte[] bytes) {
         Assertions.assertTimeoutPreemptively(BUDGET, () -> {
             for (boolean complete : new boolean[] {true, false}) {
@@ -80,13 +73,17 @@ class ReaderFuzzTest {
         }, () -> name + " took longer than " + BUDGET);
     }
 
-    @Property(tries = 400)
-    void mutatedRealFilesAreReadOrRefusedButNeverCrashTheReaders(@ForAll("seed") Seed seed, @ForAll long noise) {
-        readWithinBudget(seed.name(), Mutations.mutate(seed.bytes(), noise));
+    @TestFactory
+    Stream<DynamicTest> mutatedRealFilesAreReadOrRefusedButNeverCrashTheReaders() {
+        return Fuzz.cases("mutated file", 400, 1_000_000L, random -> {
+            Seed seed = Fuzz.pick(random, SEEDS);
+            readWithinBudget(seed.name(), Mutations.mutate(seed.bytes(), random.nextLong()));
+        });
     }
 
-    @Property(tries = 150)
-    void randomBytesUnderEveryNameAreReadOrRefused(@ForAll("seed") Seed seed, @ForAll @Size(max = 2048) byte[] bytes) {
-        readWithinBudget(seed.name(), bytes);
+    @TestFactory
+    Stream<DynamicTest> randomBytesUnderEveryNameAreReadOrRefused() {
+        return Fuzz.cases("random bytes", 150, 2_000_000L, random ->
+                readWithinBudget(Fuzz.pick(random, SEEDS).name(), Fuzz.bytes(random, 2048)));
     }
 }
