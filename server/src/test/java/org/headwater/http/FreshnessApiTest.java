@@ -40,7 +40,11 @@ class FreshnessApiTest {
         catalog = TestCatalogs.fresh(temp.resolve("catalog"), Clock.fixed(HiveWorkspaceAccess.now(), ZoneOffset.UTC));
         catalog.harvestFolder(workspace, false, HarvestProgress.NONE);
         server = ApiServer.start(catalog, "127.0.0.1", 0);
+        editor = org.headwater.testing.TestTokens.create(catalog, org.headwater.access.Role.EDITOR);
     }
+
+    /** Writes need an editor's token (README, "Security model"). */
+    static String editor;
 
     @AfterAll
     static void stop() {
@@ -52,7 +56,8 @@ class FreshnessApiTest {
     }
 
     static Answer send(String method, String path, String body) throws IOException, InterruptedException {
-        HttpRequest.Builder request = HttpRequest.newBuilder(URI.create(server.url() + path.substring(1)));
+        HttpRequest.Builder request = HttpRequest.newBuilder(URI.create(server.url() + path.substring(1)))
+                .header("Authorization", "Bearer " + editor).header("Content-Type", "application/json");
         request.method(method, body == null ? HttpRequest.BodyPublishers.noBody() : HttpRequest.BodyPublishers.ofString(body));
         HttpResponse<String> response = HTTP.send(request.build(), HttpResponse.BodyHandlers.ofString());
         return new Answer(response.statusCode(), JSON.readTree(response.body()));
@@ -120,8 +125,8 @@ class FreshnessApiTest {
         long id = id("hives/weights.csv");
         Answer badPolicy = send("PUT", "/api/datasets/" + id + "/freshness-policy", "{\"policy\": \"schedule 0 6 * *\"}");
         assertThat(badPolicy.status()).isEqualTo(400);
-        assertThat(badPolicy.body().get("error").asText()).isEqualTo("bad_request");
-        assertThat(badPolicy.body().get("message").asText()).startsWith("Not a freshness policy: a schedule has the five"
+        assertThat(badPolicy.body().get("code").asText()).isEqualTo("bad_request");
+        assertThat(badPolicy.body().get("detail").asText()).startsWith("Not a freshness policy: a schedule has the five"
                 + " crontab fields");
         assertThat(send("PUT", "/api/datasets/" + id + "/freshness-policy", "not json").status()).isEqualTo(400);
         assertThat(send("PUT", "/api/datasets/" + id + "/freshness-policy", "{\"policy\": 36}").status()).isEqualTo(400);

@@ -42,7 +42,11 @@ class LineageApiTest {
         catalog = TestCatalogs.fresh(temp.resolve("catalog"));
         catalog.harvestFolder(workspace, false, HarvestProgress.NONE);
         server = ApiServer.start(catalog, "127.0.0.1", 0);
+        editor = org.headwater.testing.TestTokens.create(catalog, org.headwater.access.Role.EDITOR);
     }
+
+    /** Writes need an editor's token (README, "Security model"). */
+    static String editor;
 
     @AfterAll
     static void stop() {
@@ -54,9 +58,12 @@ class LineageApiTest {
     }
 
     static Answer send(HttpRequest.Builder request) throws Exception {
+        request.header("Authorization", "Bearer " + editor).header("Content-Type", "application/json");
         HttpResponse<String> r = HTTP.send(request.build(), HttpResponse.BodyHandlers.ofString());
         String type = r.headers().firstValue("content-type").orElse("");
-        return new Answer(r.statusCode(), type, type.startsWith("application/json") ? JSON.readTree(r.body()) : null, r.body());
+        // Errors are RFC 9457 problem documents (application/problem+json), with the message in "detail".
+        boolean json = type.startsWith("application/json") || type.startsWith("application/problem+json");
+        return new Answer(r.statusCode(), type, json ? JSON.readTree(r.body()) : null, r.body());
     }
 
     static Answer get(String path) throws Exception {
@@ -103,21 +110,21 @@ class LineageApiTest {
         long varieties = id("raw/varieties.csv");
         Answer depth = get("/api/datasets/" + varieties + "/downstream?depth=deep");
         assertThat(depth.status()).isEqualTo(400);
-        assertThat(depth.body().get("message").asText()).isEqualTo("depth must be a whole number, got 'deep'");
+        assertThat(depth.body().get("detail").asText()).isEqualTo("depth must be a whole number, got 'deep'");
         Answer kind = get("/api/datasets/" + varieties + "/downstream?kind=spreadsheet");
         assertThat(kind.status()).isEqualTo(400);
-        assertThat(kind.body().get("message").asText()).isEqualTo("unknown kind 'spreadsheet'; use file, file_set, table, view, figure, other");
+        assertThat(kind.body().get("detail").asText()).isEqualTo("unknown kind 'spreadsheet'; use file, file_set, table, view, figure, other");
         Answer source = get("/api/datasets/" + varieties + "/downstream?source=nowhere");
         assertThat(source.status()).isEqualTo(400);
-        assertThat(source.body().get("message").asText()).isEqualTo("no source is called 'nowhere'");
+        assertThat(source.body().get("detail").asText()).isEqualTo("no source is called 'nowhere'");
         Answer confidence = get("/api/datasets/" + varieties + "/downstream?minConfidence=2");
         assertThat(confidence.status()).isEqualTo(400);
         Answer noDataset = get("/api/datasets/999999/upstream");
         assertThat(noDataset.status()).isEqualTo(404);
-        assertThat(noDataset.body().get("message").asText()).isEqualTo("No dataset with id 999999");
+        assertThat(noDataset.body().get("detail").asText()).isEqualTo("No dataset with id 999999");
         Answer noColumn = get("/api/datasets/" + varieties + "/downstream?column=colour");
         assertThat(noColumn.status()).isEqualTo(404);
-        assertThat(noColumn.body().get("message").asText()).isEqualTo("Dataset raw/varieties.csv has no column 'colour'");
+        assertThat(noColumn.body().get("detail").asText()).isEqualTo("Dataset raw/varieties.csv has no column 'colour'");
     }
 
     @Test
@@ -149,15 +156,15 @@ class LineageApiTest {
     void badImpactRequestsAre400And404WithAMessage() throws Exception {
         Answer missing = get("/api/impact");
         assertThat(missing.status()).isEqualTo(400);
-        assertThat(missing.body().get("message").asText()).startsWith("Parameter 'target' is required");
+        assertThat(missing.body().get("detail").asText()).startsWith("Parameter 'target' is required");
         Answer unknown = get("/api/impact?target=" + q("work/nothing.csv"));
         assertThat(unknown.status()).isEqualTo(404);
         Answer change = get("/api/impact?target=" + q("work/rates.csv") + "&change=shrink");
         assertThat(change.status()).isEqualTo(400);
-        assertThat(change.body().get("message").asText()).startsWith("unknown change 'shrink'");
+        assertThat(change.body().get("detail").asText()).startsWith("unknown change 'shrink'");
         Answer misfit = get("/api/impact?target=" + q("work/rates.csv") + "&change=retype");
         assertThat(misfit.status()).isEqualTo(400);
-        assertThat(misfit.body().get("message").asText()).isEqualTo("retype is a change to a column; name it as dataset.column");
+        assertThat(misfit.body().get("detail").asText()).isEqualTo("retype is a change to a column; name it as dataset.column");
         Answer format = get("/api/impact?target=" + q("work/rates.csv") + "&format=pdf");
         assertThat(format.status()).isEqualTo(400);
     }
@@ -181,17 +188,17 @@ class LineageApiTest {
         Answer badKind = send(HttpRequest.newBuilder(URI.create(owners))
                 .PUT(HttpRequest.BodyPublishers.ofString("{\"owner\": \"x\", \"kind\": \"robot\"}")));
         assertThat(badKind.status()).isEqualTo(400);
-        assertThat(badKind.body().get("message").asText()).isEqualTo("kind must be 'person' or 'team', got 'robot'");
+        assertThat(badKind.body().get("detail").asText()).isEqualTo("kind must be 'person' or 'team', got 'robot'");
         Answer notJson = send(HttpRequest.newBuilder(URI.create(owners)).PUT(HttpRequest.BodyPublishers.ofString("owner=x")));
         assertThat(notJson.status()).isEqualTo(400);
 
         Answer notOwner = send(HttpRequest.newBuilder(URI.create(owners + "/nobody-here")).DELETE());
         assertThat(notOwner.status()).isEqualTo(404);
-        assertThat(notOwner.body().get("message").asText()).isEqualTo("nobody-here is not an owner of work/low_trays.csv");
+        assertThat(notOwner.body().get("detail").asText()).isEqualTo("nobody-here is not an owner of work/low_trays.csv");
         String ratesOwners = server.url() + "api/datasets/" + id("work/rates.csv") + "/owners/trial-analysts";
         Answer fromFile = send(HttpRequest.newBuilder(URI.create(ratesOwners)).DELETE());
         assertThat(fromFile.status()).isEqualTo(409);
-        assertThat(fromFile.body().get("message").asText()).startsWith("trial-analysts owns work/rates.csv through headwater.owners line 5");
+        assertThat(fromFile.body().get("detail").asText()).startsWith("trial-analysts owns work/rates.csv through headwater.owners line 5");
         Answer removed = send(HttpRequest.newBuilder(URI.create(owners + "/seed-keepers")).DELETE());
         assertThat(removed.status()).isEqualTo(200);
         assertThat(removed.body().get("owners")).extracting(o -> o.get("name").asText()).containsExactly("Wren Maddox");

@@ -92,11 +92,11 @@ class SearchApiTest {
     void malformedQueriesAndParametersAreA400WithAMessage() throws Exception {
         HttpResponse<String> unclosed = get(q("heron \"colony"));
         assertThat(unclosed.statusCode()).isEqualTo(400);
-        assertThat(JSON.readTree(unclosed.body()).get("message").asText())
+        assertThat(JSON.readTree(unclosed.body()).get("detail").asText())
                 .isEqualTo("The quote opened at position 7 is never closed");
         HttpResponse<String> unknown = get(q("size=large"));
         assertThat(unknown.statusCode()).isEqualTo(400);
-        assertThat(JSON.readTree(unknown.body()).get("message").asText()).startsWith("Unknown filter 'size'");
+        assertThat(JSON.readTree(unknown.body()).get("detail").asText()).startsWith("Unknown filter 'size'");
         assertThat(get(q("heron") + "&page=0").statusCode()).isEqualTo(400);
         assertThat(get(q("heron") + "&explain=maybe").statusCode()).isEqualTo(400);
         assertThat(get(q("heron") + "&page=100&size=100").statusCode()).isEqualTo(400);

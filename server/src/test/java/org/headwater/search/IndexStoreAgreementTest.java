@@ -17,6 +17,7 @@ import org.apache.lucene.store.FSDirectory;
 import org.headwater.Catalog;
 import org.headwater.harvest.HarvestProgress;
 import org.headwater.ingest.Observation;
+import org.headwater.testing.IndexKeys;
 import org.headwater.testing.Workspaces;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
@@ -29,21 +30,8 @@ class IndexStoreAgreementTest {
     @TempDir
     Path temp;
 
-    /** What the store says should be indexed, read with plain SQL, independently of the index's own reader. */
     static List<String> expectedKeys(Catalog catalog) {
-        var db = catalog.store().dsl();
-        List<String> keys = new ArrayList<>();
-        db.fetch("select dataset_id from dataset_state where valid_to is null")
-                .forEach(r -> keys.add("dataset:" + r.get(0)));
-        db.fetch("select v.dataset_id, c.ordinal from schema_column c join schema_version v on v.id = c.schema_version_id"
-                        + " join dataset_state s on s.dataset_id = v.dataset_id and s.valid_to is null where v.valid_to is null")
-                .forEach(r -> keys.add("column:" + r.get(0) + ":" + r.get(1)));
-        db.fetch("select script_id from script_state where valid_to is null").forEach(r -> keys.add("script:" + r.get(0)));
-        db.fetch("select distinct o.owner_id from dataset_owner o join dataset_state s on s.dataset_id = o.dataset_id"
-                        + " and s.valid_to is null where o.valid_to is null")
-                .forEach(r -> keys.add("owner:" + r.get(0)));
-        keys.sort(null);
-        return keys;
+        return IndexKeys.expected(catalog);
     }
 
     @Test
