@@ -107,7 +107,17 @@ public final class Catalog implements AutoCloseable {
 
     /** Harvests a local folder through the ingestion path; the catalog directory itself is never harvested. */
     public HarvestSummary harvestFolder(Path folder, boolean full, HarvestProgress progress) throws IOException {
-        FolderHarvester.Options options = FolderHarvester.Options.defaults().excluding(dataDir).withFull(full);
+        return harvestFolder(folder, full, false, progress);
+    }
+
+    /**
+     * As above; {@code sampling} keeps the smallest and largest value of number and date columns, which are
+     * cell values and so stay out of the catalog unless asked for (README, "A caution about personal data").
+     */
+    public HarvestSummary harvestFolder(Path folder, boolean full, boolean sampling, HarvestProgress progress)
+            throws IOException {
+        FolderHarvester.Options options = FolderHarvester.Options.defaults().excluding(dataDir).withFull(full)
+                .withSampling(sampling);
         HarvestSummary summary = new FolderHarvester(ingestor, sources, journal, reader, FormatRegistry.standard(),
                 options, new ScriptLineage(reader)).harvest(folder, progress);
         return withPolicyFile(folder, summary);

@@ -39,7 +39,8 @@ final class DemoCommand implements Callable<Integer> {
             Catalog catalog = Catalog.open(dataDir != null ? dataDir : temp.resolve("catalog"));
             try {
                 DemoWorkspace.copyTo(workspace.getParent());
-                summary.set(catalog.harvestFolder(workspace, false, HarvestProgress.NONE));
+                // The demo's data is invented: value sampling on, so its pages show column ranges.
+                summary.set(catalog.harvestFolder(workspace, false, true, HarvestProgress.NONE));
                 return catalog;
             } catch (IOException e) {
                 catalog.close();

@@ -52,6 +52,10 @@ final class HarvestCommand implements Callable<Integer> {
     @Option(names = "--full", description = "Read every file again, even those that look unchanged.")
     boolean full;
 
+    @Option(names = "--sampling", description = {"Keep the smallest and largest value of number and date columns.",
+            "Off by default: they are cell values, and can say something about people."})
+    boolean sampling;
+
     @Mixin
     CatalogOptions catalog;
 
@@ -81,7 +85,7 @@ final class HarvestCommand implements Callable<Integer> {
         List<HarvestSummary> summaries = new ArrayList<>();
         try (Catalog open = catalog.open()) {
             for (Path path : paths) {
-                summaries.add(open.harvestFolder(path, full, output.json ? HarvestProgress.NONE
+                summaries.add(open.harvestFolder(path, full, sampling, output.json ? HarvestProgress.NONE
                         : TerminalProgress.forTerminal(path)));
             }
             if (jdbcUrl != null) {

@@ -73,7 +73,7 @@ public final class FolderHarvester {
 
         public static Options defaults() {
             return new Options(64L * 1024 * 1024, 64 * 1024, 250, Set.of(), false,
-                    Math.max(1, Math.min(4, Runtime.getRuntime().availableProcessors())), NameFilter.ALL, true);
+                    Math.max(1, Math.min(4, Runtime.getRuntime().availableProcessors())), NameFilter.ALL, false);
         }
 
         public Options excluding(Path folder) {

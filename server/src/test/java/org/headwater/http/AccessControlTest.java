@@ -55,8 +55,12 @@ class AccessControlTest {
 
     @AfterAll
     static void stop() {
-        server.close();
-        catalog.close();
+        if (server != null) {
+            server.close();
+        }
+        if (catalog != null) {
+            catalog.close();
+        }
     }
 
     record Answer(int status, JsonNode body, HttpResponse<String> raw) {

@@ -48,8 +48,12 @@ class FreshnessApiTest {
 
     @AfterAll
     static void stop() {
-        server.close();
-        catalog.close();
+        if (server != null) {
+            server.close();
+        }
+        if (catalog != null) {
+            catalog.close();
+        }
     }
 
     record Answer(int status, JsonNode body) {

@@ -39,7 +39,9 @@ class LimitsTest {
 
     @AfterAll
     static void close() {
-        catalog.close();
+        if (catalog != null) {
+            catalog.close();
+        }
     }
 
     static HttpResponse<String> post(ApiServer server, String path, String body) throws Exception {

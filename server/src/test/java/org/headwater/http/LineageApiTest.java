@@ -50,8 +50,12 @@ class LineageApiTest {
 
     @AfterAll
     static void stop() {
-        server.close();
-        catalog.close();
+        if (server != null) {
+            server.close();
+        }
+        if (catalog != null) {
+            catalog.close();
+        }
     }
 
     record Answer(int status, String type, JsonNode body, String text) {

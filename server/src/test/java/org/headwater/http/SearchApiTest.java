@@ -44,8 +44,12 @@ class SearchApiTest {
 
     @AfterAll
     static void stop() {
-        server.close();
-        catalog.close();
+        if (server != null) {
+            server.close();
+        }
+        if (catalog != null) {
+            catalog.close();
+        }
     }
 
     static HttpResponse<String> get(String query) throws Exception {

@@ -40,8 +40,12 @@ class UiRoutesTest {
 
     @AfterAll
     static void stop() {
-        server.close();
-        catalog.close();
+        if (server != null) {
+            server.close();
+        }
+        if (catalog != null) {
+            catalog.close();
+        }
     }
 
     static HttpResponse<byte[]> get(String path) throws IOException, InterruptedException {

@@ -37,7 +37,9 @@ class DemoSearchRelevanceTest {
 
     @AfterAll
     static void close() {
-        catalog.close();
+        if (catalog != null) {
+            catalog.close();
+        }
     }
 
     record Judged(String query, Map<String, Integer> grades) {

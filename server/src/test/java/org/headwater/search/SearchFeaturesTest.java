@@ -36,7 +36,9 @@ class SearchFeaturesTest {
 
     @AfterAll
     static void close() {
-        catalog.close();
+        if (catalog != null) {
+            catalog.close();
+        }
     }
 
     static SearchResult search(String text) {
