@@ -50,6 +50,11 @@ public final class FreshnessChecks {
         return Report.of(now, judge(now, null).stream().map(Judged::check).toList());
     }
 
+    /** The freshness the checks had recorded by {@code asOf}: history, not a new evaluation. */
+    public Report recordedAsOf(Instant asOf) {
+        return Report.of(asOf, records.recordedAt(asOf));
+    }
+
     /** One present dataset's freshness now, without recording anything; empty when it is not present. */
     public Optional<Check> evaluate(long datasetId) {
         return judge(clock.instant(), datasetId).stream().map(Judged::check).findFirst();

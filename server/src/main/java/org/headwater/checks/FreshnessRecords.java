@@ -22,6 +22,22 @@ final class FreshnessRecords {
         this.store = store;
     }
 
+    /**
+     * The checks in force at {@code asOf} as they were recorded then (by {@code check} or the schedule), with
+     * the newer input's name as it is now; nothing is evaluated again.
+     */
+    List<Check> recordedAt(Instant asOf) {
+        var input = DATASET.as("input");
+        return store.dsl().select(FRESHNESS_CHECK.DATASET_ID, DATASET.NAME, FRESHNESS_CHECK.STATE, FRESHNESS_CHECK.SINCE,
+                        FRESHNESS_CHECK.WHY, FRESHNESS_CHECK.POLICY, FRESHNESS_CHECK.NEWER_INPUT_ID, input.NAME)
+                .from(FRESHNESS_CHECK).join(DATASET).on(DATASET.ID.eq(FRESHNESS_CHECK.DATASET_ID))
+                .leftJoin(input).on(input.ID.eq(FRESHNESS_CHECK.NEWER_INPUT_ID))
+                .where(org.headwater.store.Validity.at(FRESHNESS_CHECK.VALID_FROM, FRESHNESS_CHECK.VALID_TO, asOf))
+                .orderBy(DATASET.NAME)
+                .fetch(r -> new Check(r.value1(), r.value2(), r.value3(), instant(r.value4()), r.value5(), r.value6(), null,
+                        null, r.value7() == null ? null : new Check.NewerInput(r.value7(), r.value8(), null)));
+    }
+
     /** A present dataset: identity, name, source and current modification time (may be null). */
     record Present(long id, String uri, String name, Long sourceId, Instant modifiedAt) {
     }

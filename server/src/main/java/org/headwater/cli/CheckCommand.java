@@ -16,6 +16,10 @@ import picocli.CommandLine.Spec;
                 + " and against its inputs (an output older than one of its inputs is stale).",
                 "States: fresh, due, late, stale, unknown. Exit code 1 when any dataset is late or stale."})
 final class CheckCommand implements Callable<Integer> {
+    @picocli.CommandLine.Option(names = "--as-of", paramLabel = "TIME",
+            description = "Show the states the checks had recorded by then (2026-03-01 or 2026-03-01T12:00:00Z); records nothing.")
+    String asOf;
+
     @Mixin
     CatalogOptions catalog;
 
@@ -30,7 +34,7 @@ final class CheckCommand implements Callable<Integer> {
         Report report;
         try (Catalog open = catalog.open()) {
             FreshnessChecks checks = open.freshness();
-            report = checks.record().report();
+            report = asOf == null ? checks.record().report() : checks.recordedAsOf(CliTimes.parse(asOf));
         }
         PrintWriter out = spec.commandLine().getOut();
         if (output.json) {

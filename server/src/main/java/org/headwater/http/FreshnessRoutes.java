@@ -14,7 +14,8 @@ final class FreshnessRoutes {
     }
 
     void all(Context ctx) {
-        ctx.json(catalog.get().freshness().evaluate());
+        java.time.Instant asOf = Params.asOf(ctx);
+        ctx.json(asOf == null ? catalog.get().freshness().evaluate() : catalog.get().freshness().recordedAsOf(asOf));
     }
 
     void one(Context ctx) {

@@ -60,6 +60,9 @@ class CheckCommandTest {
         assertThat(report.get("checks").get(0).get("state").asText()).isEqualTo("unknown");
 
         // The script is run again: its output is now newer than its input.
+        Thread.sleep(20);
+        java.time.Instant whileStale = java.time.Instant.now();
+        Thread.sleep(20);
         Files.setLastModifiedTime(ws.resolve("trees/girth_mean.csv"), FileTime.from(hourAgo.plus(Duration.ofMinutes(5))));
         run("harvest", ws.toString(), "--data-dir", dataDir);
         Ran fresh = run("check", "--data-dir", dataDir);
@@ -67,6 +70,14 @@ class CheckCommandTest {
         assertThat(fresh.exit()).isEqualTo(Main.OK);
         assertThat(fresh.out()).contains("fresh    trees/girth_mean.csv");
         assertThat(fresh.out().strip()).endsWith("1 fresh, 0 due, 0 late, 0 stale, 1 unknown");
+
+        // As of a moment while it was stale: the recorded state of then, and the same exit code as then.
+        Ran then = run("check", "--json", "--as-of", whileStale.toString(), "--data-dir", dataDir);
+        assertThat(then.exit()).isEqualTo(Main.PROBLEMS);
+        JsonNode past = JSON.readTree(then.out());
+        assertThat(past.get("counts").get("stale").asInt()).isEqualTo(1);
+        assertThat(past.get("checks")).extracting(c -> c.get("name").asText() + " " + c.get("state").asText())
+                .contains("trees/girth_mean.csv stale");
     }
 
     @Test
