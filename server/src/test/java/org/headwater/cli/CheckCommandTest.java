@@ -1,17 +1,17 @@
 package org.headwater.cli;
 
 import static org.assertj.core.api.Assertions.assertThat;
+import static org.headwater.testing.Cli.run;
 
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
-import java.io.PrintWriter;
-import java.io.StringWriter;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.nio.file.attribute.FileTime;
 import java.time.Duration;
 import java.time.Instant;
 import java.time.temporal.ChronoUnit;
+import org.headwater.testing.Cli.Ran;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
@@ -22,15 +22,7 @@ class CheckCommandTest {
     @TempDir
     Path temp;
 
-    record Ran(int exit, String out, String err) {
-    }
 
-    Ran run(String... args) {
-        StringWriter out = new StringWriter();
-        StringWriter err = new StringWriter();
-        int exit = Main.run(new PrintWriter(out, true), new PrintWriter(err, true), args);
-        return new Ran(exit, out.toString(), err.toString());
-    }
 
     @Test
     void exitsWithOneWhileAnOutputIsOlderThanItsInputAndWithZeroOnceItIsRemade() throws Exception {

@@ -1,11 +1,11 @@
 package org.headwater.cli;
 
 import static org.assertj.core.api.Assertions.assertThat;
+import static org.headwater.testing.Cli.run;
 
-import java.io.PrintWriter;
-import java.io.StringWriter;
 import java.nio.file.Files;
 import java.nio.file.Path;
+import org.headwater.testing.Cli.Ran;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
@@ -13,15 +13,7 @@ class HarvestConfigCommandTest {
     @TempDir
     Path temp;
 
-    record Ran(int exit, String out, String err) {
-    }
 
-    Ran run(String... args) {
-        StringWriter out = new StringWriter();
-        StringWriter err = new StringWriter();
-        int exit = Main.run(new PrintWriter(out, true), new PrintWriter(err, true), args);
-        return new Ran(exit, out.toString(), err.toString());
-    }
 
     @Test
     void aSourcesFileHarvestsEachSourceAndAFailedOneIsReportedWithoutStoppingTheRest() throws Exception {

@@ -1,11 +1,10 @@
 package org.headwater.cli;
 
 import static org.assertj.core.api.Assertions.assertThat;
+import static org.headwater.testing.Cli.run;
 
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
-import java.io.PrintWriter;
-import java.io.StringWriter;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.time.Instant;
@@ -20,18 +19,11 @@ class HistoryQueriesTest {
     @TempDir
     Path temp;
 
-    private String[] run(String... args) {
-        StringWriter out = new StringWriter();
-        StringWriter err = new StringWriter();
-        int exit = Main.run(new PrintWriter(out, true), new PrintWriter(err, true), args);
-        return new String[] {Integer.toString(exit), out.toString(), err.toString()};
-    }
-
     @Test
     void impactAndOwnersAsOfAnEarlierTimeShowTheLineageAndOwnersOfThen() throws Exception {
         Path workspace = SeedLibraryAccess.copy(temp);
         String dataDir = temp.resolve("c").toString();
-        assertThat(run("harvest", workspace.toString(), "--data-dir", dataDir)[0]).isEqualTo("0");
+        assertThat(run("harvest", workspace.toString(), "--data-dir", dataDir).exit()).isZero();
         Thread.sleep(20);
         Instant before = Instant.now();
         Thread.sleep(20);
@@ -40,21 +32,21 @@ class HistoryQueriesTest {
         // season.py is the only script reading work/low_trays.csv).
         Files.delete(workspace.resolve("scripts/season.py"));
         run("harvest", workspace.toString(), "--data-dir", dataDir);
-        assertThat(run("own", "work/season.csv", "Juniper Ashgrove", "--data-dir", dataDir)[0]).isEqualTo("0");
+        assertThat(run("own", "work/season.csv", "Juniper Ashgrove", "--data-dir", dataDir).exit()).isZero();
 
-        JsonNode now = JSON.readTree(run("impact", "work/low_trays.csv.tray_id", "--json", "--data-dir", dataDir)[1]);
+        JsonNode now = JSON.readTree(run("impact", "work/low_trays.csv.tray_id", "--json", "--data-dir", dataDir).out());
         JsonNode then = JSON.readTree(run("impact", "work/low_trays.csv.tray_id", "--json", "--as-of", before.toString(),
-                "--data-dir", dataDir)[1]);
+                "--data-dir", dataDir).out());
         assertThat(now.get("counts").get("total").asInt()).isZero();
         assertThat(then.get("affected")).extracting(a -> a.get("name").asText()).containsExactly(
                 "work/season.csv", "work/season.csv.poor_trays", "scripts/season.py");
 
-        JsonNode ownersNow = JSON.readTree(run("own", "work/season.csv", "--json", "--data-dir", dataDir)[1]);
+        JsonNode ownersNow = JSON.readTree(run("own", "work/season.csv", "--json", "--data-dir", dataDir).out());
         JsonNode ownersThen = JSON.readTree(run("own", "work/season.csv", "--json", "--as-of", before.toString(),
-                "--data-dir", dataDir)[1]);
+                "--data-dir", dataDir).out());
         assertThat(ownersNow.get("owners")).extracting(o -> o.get("name").asText()).contains("Juniper Ashgrove");
         assertThat(ownersThen.get("owners")).extracting(o -> o.get("name").asText()).doesNotContain("Juniper Ashgrove");
-        assertThat(run("own", "work/season.csv", "Juniper Ashgrove", "--as-of", before.toString(), "--data-dir", dataDir)[0])
-                .isEqualTo("2");
+        assertThat(run("own", "work/season.csv", "Juniper Ashgrove", "--as-of", before.toString(), "--data-dir", dataDir).exit())
+                .isEqualTo(Main.USAGE);
     }
 }

@@ -1,13 +1,13 @@
 package org.headwater.cli;
 
 import static org.assertj.core.api.Assertions.assertThat;
+import static org.headwater.testing.Cli.run;
 
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
-import java.io.PrintWriter;
-import java.io.StringWriter;
 import java.nio.file.Path;
 import org.headwater.impact.SeedLibraryAccess;
+import org.headwater.testing.Cli.Ran;
 import org.junit.jupiter.api.BeforeAll;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
@@ -24,15 +24,7 @@ class LineageCommandsTest {
 
     static String dataDir;
 
-    record Ran(int exit, String out, String err) {
-    }
 
-    static Ran run(String... args) {
-        StringWriter out = new StringWriter();
-        StringWriter err = new StringWriter();
-        int exit = Main.run(new PrintWriter(out, true), new PrintWriter(err, true), args);
-        return new Ran(exit, out.toString(), err.toString());
-    }
 
     @BeforeAll
     static void harvest() throws Exception {

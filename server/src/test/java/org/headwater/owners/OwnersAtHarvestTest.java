@@ -1,16 +1,16 @@
 package org.headwater.owners;
 
 import static org.assertj.core.api.Assertions.assertThat;
+import static org.headwater.testing.Cli.run;
 
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
-import java.io.PrintWriter;
-import java.io.StringWriter;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
 import org.headwater.cli.Main;
+import org.headwater.testing.Cli.Ran;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
@@ -24,15 +24,6 @@ class OwnersAtHarvestTest {
     @TempDir
     Path temp;
 
-    record Ran(int exit, String out, String err) {
-    }
-
-    private static Ran run(String... args) {
-        StringWriter out = new StringWriter();
-        StringWriter err = new StringWriter();
-        int exit = Main.run(new PrintWriter(out, true), new PrintWriter(err, true), args);
-        return new Ran(exit, out.toString(), err.toString());
-    }
 
     private List<String> owners(String dataDir, String dataset) throws Exception {
         Ran ran = run("own", dataset, "--data-dir", dataDir, "--json");
