@@ -18,7 +18,6 @@ import java.time.Instant;
 import java.time.OffsetDateTime;
 import java.time.ZoneOffset;
 import java.util.ArrayList;
-import java.util.HashSet;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
@@ -78,6 +77,12 @@ public final class ProvExport {
         Map<Long, String[]> scripts = scripts(db, scriptIds);
         Map<Long, List<String>> owners = owners(db, asOf, datasets.keySet());
         Map<String, String> ownerKinds = ownerKinds(db, owners);
+        Set<String> people = new TreeSet<>();
+        runs.values().forEach(r -> {
+            if (r.user() != null) {
+                people.add(r.user());
+            }
+        });
 
         try (JsonGenerator g = new JsonFactory().createGenerator(out, JsonEncoding.UTF8)) {
             g.useDefaultPrettyPrinter();
@@ -103,12 +108,8 @@ public final class ProvExport {
                 g.writeStringField("rdfs:label", s.getValue()[1]);
                 g.writeEndObject();
             }
-            Set<String> people = new TreeSet<>();
             for (var r : runs.entrySet()) {
                 writeRun(g, r.getKey(), r.getValue(), datasets, scripts);
-                if (r.getValue().user() != null) {
-                    people.add(r.getValue().user());
-                }
             }
             for (String user : people) {
                 g.writeStartObject();
@@ -134,17 +135,7 @@ public final class ProvExport {
             g.writeEndArray();
             g.writeEndObject();
         }
-        return new Counts(datasets.size(), edges.size(), runs.size(), scripts.size(), people(runs) + ownerKinds.size());
-    }
-
-    private static int people(Map<String, RunFacts> runs) {
-        Set<String> users = new HashSet<>();
-        runs.values().forEach(r -> {
-            if (r.user() != null) {
-                users.add(r.user());
-            }
-        });
-        return users.size();
+        return new Counts(datasets.size(), edges.size(), runs.size(), scripts.size(), people.size() + ownerKinds.size());
     }
 
     private static void writeContext(JsonGenerator g) throws IOException {
