@@ -116,8 +116,7 @@ public final class Catalog implements AutoCloseable {
      */
     public HarvestSummary harvestFolder(Path folder, boolean full, boolean sampling, HarvestProgress progress)
             throws IOException {
-        FolderHarvester.Options options = FolderHarvester.Options.defaults().excluding(dataDir).withFull(full)
-                .withSampling(sampling);
+        FolderHarvester.Options options = harvestOptions(full).withSampling(sampling);
         HarvestSummary summary = new FolderHarvester(ingestor, sources, journal, reader, FormatRegistry.standard(),
                 options, new ScriptLineage(reader)).harvest(folder, progress);
         return withPolicyFile(folder, summary);
@@ -166,12 +165,17 @@ public final class Catalog implements AutoCloseable {
         return FolderHarvester.Options.defaults().excluding(dataDir).withFull(full);
     }
 
-    /** Harvests any storage backend (a configured folder, an object-store prefix) through the ingestion path. */
+    /**
+     * Harvests any storage backend (a configured folder, an object-store prefix) through the ingestion path;
+     * a local folder's freshness policy file is read after its files, as for {@link #harvestFolder}.
+     */
     public HarvestSummary harvest(StorageBackend backend, String sourceName, FolderHarvester.Options options,
             HarvestProgress progress) throws IOException {
-        ScriptLineage scripts = backend.localRoot().isPresent() ? new ScriptLineage(reader) : null;
-        return new FolderHarvester(ingestor, sources, journal, reader, FormatRegistry.standard(), options, scripts)
-                .harvest(backend, sourceName, progress);
+        java.util.Optional<Path> root = backend.localRoot();
+        ScriptLineage scripts = root.isPresent() ? new ScriptLineage(reader) : null;
+        HarvestSummary summary = new FolderHarvester(ingestor, sources, journal, reader, FormatRegistry.standard(), options,
+                scripts).harvest(backend, sourceName, progress);
+        return root.isPresent() ? withPolicyFile(root.get(), summary) : summary;
     }
 
     /**

@@ -39,7 +39,9 @@ class FreshnessChecksTest {
 
     @AfterEach
     void close() {
-        catalog.close();
+        if (catalog != null) {
+            catalog.close();
+        }
     }
 
     private FreshnessChecks checksAt(Instant now) {

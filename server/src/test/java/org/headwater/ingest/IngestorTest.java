@@ -45,7 +45,9 @@ class IngestorTest {
 
     @AfterEach
     void close() {
-        catalog.close();
+        if (catalog != null) {
+            catalog.close();
+        }
     }
 
     private static DatasetSeen gauges(String uri, List<ColumnDef> columns, long size) {

@@ -65,7 +65,9 @@ class GraphMaintenanceTest {
 
     @AfterEach
     void close() {
-        catalog.close();
+        if (catalog != null) {
+            catalog.close();
+        }
     }
 
     private void apply(Object... observations) {
