@@ -46,7 +46,9 @@ class ConfiguredDatabaseTest {
 
         // Exit 1: one source failed (README, "Using it": exit codes).
         assertThat(exit).isEqualTo(Main.PROBLEMS);
-        assertThat(out.toString()).contains("offsite (database): FAILED");
+        // The failed source's line names why, as its harvest record does (it once printed "null").
+        assertThat(out.toString()).containsPattern(
+                "offsite \\(database\\): FAILED \\(harvest \\d+\\): cannot harvest jdbc:postgresql://127\\.0\\.0\\.1:1/none: ");
         try (Catalog catalog = Catalog.open(dataDir)) {
             assertThat(catalog.reader().findDatasets("db:hatchery/PUBLIC.FRY_COUNTS")).hasSize(1);
             assertThat(catalog.reader().findDatasets("db:hatchery/PUBLIC.BUSY_TANKS")).hasSize(1);

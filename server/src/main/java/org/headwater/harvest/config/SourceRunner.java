@@ -74,7 +74,8 @@ public final class SourceRunner {
             } else {
                 summary = databases.harvest(((SourceSpec.Database) spec).source(), progress);
             }
-            return new Outcome(spec.name(), spec.kind(), summary.status(), summary.harvestId(), summary, null);
+            return new Outcome(spec.name(), spec.kind(), summary.status(), summary.harvestId(), summary,
+                    failureMessage(summary));
         } catch (HarvestFailedException e) {
             // The pipeline has already written the failure on its own harvest record.
             return new Outcome(spec.name(), spec.kind(), HarvestJournal.FAILED, e.harvestId(), null, e.getMessage());
@@ -83,6 +84,15 @@ public final class SourceRunner {
             long id = catalog.recordFailedHarvest(spec.name(), spec.kind(), rootUri(spec), message);
             return new Outcome(spec.name(), spec.kind(), HarvestJournal.FAILED, id, null, message);
         }
+    }
+
+    /** A harvester that reports its failure in the summary (the database one) names the reason in its first error. */
+    private static String failureMessage(HarvestSummary summary) {
+        if (!HarvestJournal.FAILED.equals(summary.status())) {
+            return null;
+        }
+        return summary.firstErrors().isEmpty() ? "failed without a recorded reason"
+                : summary.firstErrors().get(0).message();
     }
 
     private HarvestSummary folder(SourceSpec.Folder f, boolean full, HarvestProgress progress) throws Exception {
