@@ -73,6 +73,7 @@ public final class ApiServer implements AutoCloseable {
             config.jsonMapper(new JavalinJackson(mapper, false));
             config.startup.showJavalinBanner = false;
             config.http.maxRequestSize = settings.maxBodyBytes();
+            config.jetty.modifyServer(server -> server.setErrorHandler(new ProtocolErrors(mapper)));
             config.staticFiles.add(files -> {
                 files.hostedPath = "/";
                 files.directory = "/headwater-web";

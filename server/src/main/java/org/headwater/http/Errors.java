@@ -19,6 +19,11 @@ final class Errors {
     private Errors() {
     }
 
+    /** The stable code of a status the server raises without a route's own code. */
+    static String codeFor(int status) {
+        return CODES.getOrDefault(status, "http_" + status);
+    }
+
     static void register(RoutesConfig routes) {
         routes.exception(ApiError.class, (e, ctx) -> {
             if (e.retryAfterSeconds() > 0) {
@@ -29,7 +34,7 @@ final class Errors {
         routes.exception(HttpResponseException.class, (e, ctx) -> {
             int status = e.getStatus();
             String detail = status == 413 ? "The request body is larger than this server accepts" : e.getMessage();
-            Problem.answer(ctx, status, CODES.getOrDefault(status, "http_" + status), detail);
+            Problem.answer(ctx, status, codeFor(status), detail);
         });
         routes.exception(Exception.class, (e, ctx) -> {
             // Never a stack trace to the caller; the log keeps it for whoever runs the server.

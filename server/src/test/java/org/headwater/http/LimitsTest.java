@@ -144,4 +144,26 @@ class LimitsTest {
             assertThat(problem(bad).get("detail").asText()).isEqualTo("The run record is not valid JSON");
         }
     }
+
+    @Test
+    void aMalformedUriIsAProblemDocumentNotJettysHtmlPage() throws Exception {
+        try (ApiServer server = ApiServer.start(catalog, "127.0.0.1", 0);
+                java.net.Socket socket = new java.net.Socket("127.0.0.1", server.port())) {
+            // "%zz" is not a percent-encoding (RFC 3986 section 2.1: "%" HEXDIG HEXDIG), so Jetty refuses the
+            // URI before any route sees it; java.net.URI would refuse it too, hence the raw socket.
+            socket.getOutputStream().write(("GET /api/datasets/%zz HTTP/1.1\r\nHost: 127.0.0.1\r\n"
+                    + "Connection: close\r\n\r\n").getBytes(java.nio.charset.StandardCharsets.US_ASCII));
+            String answer = new String(socket.getInputStream().readAllBytes(), java.nio.charset.StandardCharsets.UTF_8);
+            String head = answer.substring(0, answer.indexOf("\r\n\r\n")).toLowerCase(java.util.Locale.ROOT);
+            JsonNode body = JSON.readTree(answer.substring(answer.indexOf("\r\n\r\n") + 4));
+            assertThat(head).startsWith("http/1.1 400");
+            // expected: RFC 9457 section 3, media type application/problem+json
+            assertThat(head).contains("content-type: application/problem+json");
+            assertThat(head).contains("x-content-type-options: nosniff");
+            assertThat(body.get("status").asInt()).isEqualTo(400);
+            assertThat(body.get("code").asText()).isEqualTo("bad_request");
+            assertThat(body.get("detail").asText()).startsWith("The server could not read the request: ");
+            assertThat(body.get("instance").isNull()).isTrue();
+        }
+    }
 }
