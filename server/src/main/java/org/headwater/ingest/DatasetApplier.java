@@ -39,6 +39,13 @@ final class DatasetApplier {
         tx.db.update(SCHEMA_VERSION).set(SCHEMA_VERSION.VALID_TO, tx.now)
                 .where(SCHEMA_VERSION.DATASET_ID.eq(dataset.getId()), SCHEMA_VERSION.VALID_TO.isNull())
                 .execute();
+        // A check says how fresh something is that exists; its last state stays as history. The policy
+        // stays current, so a dataset that comes back is held to it again.
+        tx.db.update(org.headwater.store.schema.Tables.FRESHNESS_CHECK)
+                .set(org.headwater.store.schema.Tables.FRESHNESS_CHECK.VALID_TO, tx.now)
+                .where(org.headwater.store.schema.Tables.FRESHNESS_CHECK.DATASET_ID.eq(dataset.getId()),
+                        org.headwater.store.schema.Tables.FRESHNESS_CHECK.VALID_TO.isNull())
+                .execute();
         if (closedStates > 0) {
             tx.changed(Change.DATASET, dataset.getId(), "removed", dataset.getName());
         }

@@ -47,4 +47,34 @@ class RecordedStatesTest {
                     .isEqualTo(Map.of("fresh", 1, "unknown", 1));
         }
     }
+
+    @Test
+    void aRemovedDatasetsCheckEndsWithItAndStaysInItsHistory() throws Exception {
+        Path lake = Files.createDirectories(temp.resolve("apiary"));
+        Path comb = lake.resolve("comb_weights.csv");
+        Files.writeString(comb, "hive,kg\nH1,2.5\n");
+        Files.writeString(lake.resolve("queen_marks.csv"), "hive,colour\nH1,blue\n");
+        Files.setLastModifiedTime(comb, FileTime.from(Instant.now().minus(Duration.ofDays(10))));
+        Files.writeString(lake.resolve(".headwater-freshness"), "comb_weights.csv  max-age 1d\n");
+        try (Catalog catalog = TestCatalogs.fresh(temp.resolve("catalog"))) {
+            catalog.harvestFolder(lake, false, HarvestProgress.NONE);
+            catalog.freshness().record();
+            long combId = catalog.reader().findDatasets("comb_weights.csv").get(0).id();
+            Instant whileLate = Instant.now();
+            Thread.sleep(5);
+
+            Files.delete(comb);
+            catalog.harvestFolder(lake, false, HarvestProgress.NONE);
+
+            assertThat(catalog.freshness().recordedAsOf(Instant.now()).checks()).extracting(Check::name)
+                    .containsExactly("queen_marks.csv");
+            assertThat(catalog.freshness().recordedAsOf(whileLate).checks()).extracting(Check::name)
+                    .containsExactly("comb_weights.csv", "queen_marks.csv");
+            History history = catalog.freshness().history(combId).orElseThrow();
+            assertThat(history.checks()).extracting(History.Entry::state).containsExactly("late");
+            assertThat(history.checks().get(0).endedAt()).isNotNull();
+            assertThat(catalog.index().search(SearchRequest.of("hive", null, 10)).facets().get("freshness"))
+                    .isEqualTo(Map.of("unknown", 1));
+        }
+    }
 }
