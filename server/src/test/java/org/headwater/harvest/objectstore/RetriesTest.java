@@ -41,19 +41,7 @@ class RetriesTest {
         });
         store.start();
         try (Catalog catalog = TestCatalogs.fresh(temp.resolve("catalog"))) {
-            SourcesConfig config = SourcesConfig.parse("""
-                    sources:
-                      - name: busy
-                        kind: s3
-                        url: s3://busy-harbour/
-                        endpoint: http://127.0.0.1:%d
-                        path-style: true
-                        access-key-env: K
-                        secret-key-env: S
-                        attempts: 3
-                    """.formatted(store.getAddress().getPort()), null, "test");
-            var outcome = new SourceRunner(catalog, DatabaseHarvests.NONE, Map.of("K", "id", "S", "secret")::get)
-                    .run(config, null, false, s -> HarvestProgress.NONE).get(0);
+            var outcome = harvestBusyHarbour(catalog, store, 3);
             // expected: AWS SDK for Java 2.x developer guide, "Retry strategies": the standard strategy retries
             // throttling and 5xx errors up to maxAttempts, the first attempt included.
             assertThat(requests.get()).isEqualTo(3);
@@ -95,19 +83,7 @@ class RetriesTest {
         });
         store.start();
         try (Catalog catalog = TestCatalogs.fresh(temp.resolve("catalog"))) {
-            SourcesConfig config = SourcesConfig.parse("""
-                    sources:
-                      - name: busy
-                        kind: s3
-                        url: s3://busy-harbour/
-                        endpoint: http://127.0.0.1:%d
-                        path-style: true
-                        access-key-env: K
-                        secret-key-env: S
-                        attempts: 2
-                    """.formatted(store.getAddress().getPort()), null, "test");
-            var outcome = new SourceRunner(catalog, DatabaseHarvests.NONE, Map.of("K", "id", "S", "secret")::get)
-                    .run(config, null, false, s -> HarvestProgress.NONE).get(0);
+            var outcome = harvestBusyHarbour(catalog, store, 2);
             assertThat(outcome.status()).isEqualTo("failed");
             // expected: Amazon S3 API Reference, "List of error codes": InternalError is HTTP 500.
             assertThat(outcome.message()).endsWith(": the store answered HTTP 500 [InternalError]");
@@ -117,5 +93,23 @@ class RetriesTest {
         } finally {
             store.stop(0);
         }
+    }
+
+    /** Harvests the bucket busy-harbour on {@code store} as a configured source allowed {@code attempts} tries. */
+    private static SourceRunner.Outcome harvestBusyHarbour(Catalog catalog, HttpServer store, int attempts)
+            throws Exception {
+        SourcesConfig config = SourcesConfig.parse("""
+                sources:
+                  - name: busy
+                    kind: s3
+                    url: s3://busy-harbour/
+                    endpoint: http://127.0.0.1:%d
+                    path-style: true
+                    access-key-env: K
+                    secret-key-env: S
+                    attempts: %d
+                """.formatted(store.getAddress().getPort(), attempts), null, "test");
+        return new SourceRunner(catalog, DatabaseHarvests.NONE, Map.of("K", "id", "S", "secret")::get)
+                .run(config, null, false, s -> HarvestProgress.NONE).get(0);
     }
 }
