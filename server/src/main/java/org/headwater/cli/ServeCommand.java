@@ -77,10 +77,13 @@ final class ServeCommand implements Callable<Integer> {
         // The store opens while the HTTP server starts: the two are the bulk of start-up time.
         serveUntilStopped(CompletableFuture.supplyAsync(catalog::open), listen.host, listen.port, settings, out,
                 server -> "Headwater is serving " + catalog.describe() + " at " + server.url(),
-                open -> {
+                (server, open) -> {
                     AutoCloseable checks = period == null ? () -> { }
                             : org.headwater.checks.CheckSchedule.start(open::freshness, period, hook);
                     SourceSchedule harvests = startHarvests(open, sources, out);
+                    if (sources != null) {
+                        server.offerSources(harvests);
+                    }
                     return () -> {
                         harvests.close();
                         checks.close();
@@ -147,15 +150,16 @@ final class ServeCommand implements Callable<Integer> {
     static void serveUntilStopped(CompletableFuture<Catalog> opening, String host, int port, ServerSettings settings,
             PrintWriter out,
             Function<ApiServer, String> greeting, Runnable afterClose) throws InterruptedException {
-        serveUntilStopped(opening, host, port, settings, out, greeting, open -> () -> { }, afterClose);
+        serveUntilStopped(opening, host, port, settings, out, greeting, (server, open) -> () -> { }, afterClose);
     }
 
     /**
-     * As above, and starts {@code alongside} (the scheduled checks) once the catalog is open; what it
-     * returns is closed before the server and the catalog.
+     * As above, and starts {@code alongside} (the scheduled checks and harvests) once the catalog is open;
+     * what it returns is closed before the server and the catalog.
      */
     static void serveUntilStopped(CompletableFuture<Catalog> opening, String host, int port, ServerSettings settings,
-            PrintWriter out, Function<ApiServer, String> greeting, Function<Catalog, AutoCloseable> alongside,
+            PrintWriter out, Function<ApiServer, String> greeting,
+            java.util.function.BiFunction<ApiServer, Catalog, AutoCloseable> alongside,
             Runnable afterClose)
             throws InterruptedException {
         ApiServer server;
@@ -181,7 +185,7 @@ final class ServeCommand implements Callable<Integer> {
         }
         out.println(greeting.apply(server));
         out.flush();
-        AutoCloseable companion = alongside.apply(catalog);
+        AutoCloseable companion = alongside.apply(server, catalog);
         CountDownLatch stopped = new CountDownLatch(1);
         Runtime.getRuntime().addShutdownHook(new Thread(() -> {
             try {

@@ -23,11 +23,19 @@ public final class ApiServer implements AutoCloseable {
     private final Javalin app;
     private final String host;
     private final QueryLimit limit;
+    private final java.util.concurrent.atomic.AtomicReference<org.headwater.harvest.config.SourceSchedule> sources;
 
-    private ApiServer(Javalin app, String host, QueryLimit limit) {
+    private ApiServer(Javalin app, String host, QueryLimit limit,
+            java.util.concurrent.atomic.AtomicReference<org.headwater.harvest.config.SourceSchedule> sources) {
         this.app = app;
         this.host = host;
         this.limit = limit;
+        this.sources = sources;
+    }
+
+    /** Lets {@code /api/sources} show and harvest the sources of {@code serve --config}. */
+    public void offerSources(org.headwater.harvest.config.SourceSchedule schedule) {
+        sources.set(schedule);
     }
 
     /** Starts serving {@code catalog} on {@code host:port} with default settings; port 0 picks a free port. */
@@ -68,6 +76,8 @@ public final class ApiServer implements AutoCloseable {
         var ui = new UiRoutes(catalog);
         var lineage = new LineageRoutes(catalog);
         var audit = new AuditRoutes(access);
+        var sources = new java.util.concurrent.atomic.AtomicReference<org.headwater.harvest.config.SourceSchedule>();
+        var sourceRoutes = new SourceRoutes(sources);
         long startedAt = System.currentTimeMillis();
         Javalin app = Javalin.create(config -> {
             config.jsonMapper(new JavalinJackson(mapper, false));
@@ -124,10 +134,12 @@ public final class ApiServer implements AutoCloseable {
             config.routes.put("/api/datasets/{id}/owners", lineage::putOwner, Role.EDITOR);
             config.routes.delete("/api/datasets/{id}/owners/{owner}", lineage::deleteOwner, Role.EDITOR);
             config.routes.get("/api/audit", audit::list, Role.ADMIN);
+            config.routes.get("/api/sources", sourceRoutes::list);
+            config.routes.post("/api/sources/{name}/harvest", sourceRoutes::harvest, Role.HARVESTER);
             Errors.register(config.routes);
         });
         app.start(host, port);
-        return new ApiServer(app, host, limit);
+        return new ApiServer(app, host, limit, sources);
     }
 
     /** A registered endpoint with the role it declares (null: none declared). */

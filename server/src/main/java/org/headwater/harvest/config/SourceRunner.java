@@ -114,7 +114,8 @@ public final class SourceRunner {
         }
     }
 
-    private static String rootUri(SourceSpec spec) {
+    /** Where a source's data lives, with no secret in it (a database URL loses its password). */
+    public static String rootUri(SourceSpec spec) {
         if (spec instanceof SourceSpec.Folder f) {
             return f.path().toUri().toString();
         }
