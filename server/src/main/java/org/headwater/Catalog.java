@@ -190,6 +190,13 @@ public final class Catalog implements AutoCloseable {
         return harvestId;
     }
 
+    /** Marks a harvest as run by the sources-file entry {@code configuredName} (see {@code HarvestJournal#runAs}). */
+    public void recordRunAs(long harvestId, String configuredName) {
+        if (!configuredName.equals(reader.harvest(harvestId).map(h -> h.source()).orElse(configuredName))) {
+            journal.runAs(harvestId, configuredName);
+        }
+    }
+
     public Path dataDir() {
         return dataDir;
     }

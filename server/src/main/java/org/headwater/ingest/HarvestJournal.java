@@ -79,6 +79,12 @@ public final class HarvestJournal {
                 .execute();
     }
 
+    /** Records which entry of a sources file ran the harvest, when that is not the source's own name. */
+    public void runAs(long harvestId, String configuredName) {
+        store.dsl().update(HARVEST).set(HARVEST.RUN_AS, Tx.truncate(configuredName, 200))
+                .where(HARVEST.ID.eq(harvestId)).execute();
+    }
+
     /** Counts one harvest reports when it ends. */
     public record Counts(int filesSeen, int filesUnchanged, int filesIgnored, int datasets, int scripts, int changes, int removed,
             int errors) {

@@ -575,7 +575,7 @@ public final class CatalogReader {
         List<HarvestErrorView> errors = !withErrors ? List.of() : db.selectFrom(HARVEST_ERROR)
                 .where(HARVEST_ERROR.HARVEST_ID.eq(id)).orderBy(HARVEST_ERROR.ID).limit(1000)
                 .fetch(e -> new HarvestErrorView(e.getUri(), e.getKind(), e.getMessage()));
-        return new HarvestView(id, r.get(SOURCE.NAME), instant(r.get(HARVEST.STARTED_AT)), instant(r.get(HARVEST.FINISHED_AT)),
+        return new HarvestView(id, r.get(HARVEST.RUN_AS) != null ? r.get(HARVEST.RUN_AS) : r.get(SOURCE.NAME), instant(r.get(HARVEST.STARTED_AT)), instant(r.get(HARVEST.FINISHED_AT)),
                 r.get(HARVEST.STATUS), r.get(HARVEST.FILES_SEEN), r.get(HARVEST.FILES_UNCHANGED), r.get(HARVEST.FILES_IGNORED), r.get(HARVEST.DATASETS_SEEN),
                 r.get(HARVEST.SCRIPTS_SEEN), r.get(HARVEST.CHANGES), r.get(HARVEST.REMOVED), r.get(HARVEST.ERRORS), errors);
     }

@@ -65,6 +65,14 @@ public final class SourceRunner {
     }
 
     public Outcome run(SourceSpec spec, boolean full, HarvestProgress progress) {
+        Outcome outcome = attempt(spec, full, progress);
+        if (outcome.harvestId() != null) {
+            catalog.recordRunAs(outcome.harvestId(), spec.name());
+        }
+        return outcome;
+    }
+
+    private Outcome attempt(SourceSpec spec, boolean full, HarvestProgress progress) {
         try {
             HarvestSummary summary;
             if (spec instanceof SourceSpec.Folder f) {

@@ -188,6 +188,11 @@ class ObjectStoreHarvestTest {
             assertThat(harvest.source()).isEqualTo("harbour");
             assertThat(harvest.errorList()).extracting(e -> e.kind()).containsExactly("harvest_failed");
             assertThat(harvest.errorList().get(0).message()).contains("[SignatureDoesNotMatch]");
+            // "unreachable" names the same bucket, so the catalog holds one source for both; its harvest record
+            // still says which entry of the file ran it, so the failure is not read as harbour's.
+            long unreachableId = outcomes.stream().filter(o -> o.source().equals("unreachable")).findFirst()
+                    .orElseThrow().harvestId();
+            assertThat(catalog.reader().harvest(unreachableId).orElseThrow().source()).isEqualTo("unreachable");
         }
     }
 
