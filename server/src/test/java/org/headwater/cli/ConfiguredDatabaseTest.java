@@ -33,10 +33,16 @@ class ConfiguredDatabaseTest {
         Path folder = Files.createDirectories(temp.resolve("tanks"));
         Files.writeString(folder.resolve("tank_log.csv"), "tank,temp_c\nT1,11.5\n");
         Path config = temp.resolve("sources.yaml");
+        // A schema reads as a folder of the owners file: "public/" gives every table beneath it, a line that
+        // names one table wins over it (more literal parts; README, "Owners").
+        Files.writeString(temp.resolve("hatchery.owners"), """
+                public/             team:hatchery-crew
+                public/busy_tanks   Tilly Brook
+                """);
         Files.writeString(config, """
                 sources:
                   - {name: tanks, kind: folder, path: %s}
-                  - {name: hatchery, kind: database, jdbc-url: "%s", user: sa}
+                  - {name: hatchery, kind: database, jdbc-url: "%s", user: sa, owners-file: hatchery.owners}
                   - {name: offsite, kind: database, jdbc-url: "jdbc:postgresql://127.0.0.1:1/none", user: nobody}
                 """.formatted(folder, url));
         Path dataDir = temp.resolve("catalog");
@@ -53,6 +59,12 @@ class ConfiguredDatabaseTest {
             assertThat(catalog.reader().findDatasets("db:hatchery/PUBLIC.FRY_COUNTS")).hasSize(1);
             assertThat(catalog.reader().findDatasets("db:hatchery/PUBLIC.BUSY_TANKS")).hasSize(1);
             assertThat(catalog.reader().findDatasets("tank_log.csv")).hasSize(1);
+            long fry = catalog.reader().findDatasets("db:hatchery/PUBLIC.FRY_COUNTS").get(0).id();
+            long busy = catalog.reader().findDatasets("db:hatchery/PUBLIC.BUSY_TANKS").get(0).id();
+            assertThat(catalog.reader().owners().ownersOf(fry, null)).extracting(o -> o.name() + " | " + o.reason())
+                    .containsExactly("hatchery-crew | headwater.owners line 1: public/ (folder public)");
+            assertThat(catalog.reader().owners().ownersOf(busy, null)).extracting(o -> o.name() + " | " + o.reason())
+                    .containsExactly("Tilly Brook | headwater.owners line 2: public/busy_tanks");
         }
     }
 }

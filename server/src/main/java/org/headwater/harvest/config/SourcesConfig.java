@@ -38,7 +38,7 @@ public final class SourcesConfig {
             "folder", Set.of("path"),
             "s3", Set.of("url", "endpoint", "path-style", "region", "access-key-env", "secret-key-env",
                     "session-token-env", "sample-kib", "attempts"),
-            "database", Set.of("jdbc-url", "user", "password-env"));
+            "database", Set.of("jdbc-url", "user", "password-env", "owners-file"));
     /** Keys that would hold a secret itself; refused with a pointer to the variable-name key. */
     private static final Map<String, String> SECRET_KEYS = Map.of(
             "password", "password-env", "secret-key", "secret-key-env", "access-key", "access-key-env",
@@ -182,7 +182,7 @@ public final class SourcesConfig {
             SourceSpec spec = switch (kind) {
                 case "folder" -> folder(name, base, filter, sampling, every);
                 case "s3" -> objectStore(name, filter, sampling, every);
-                default -> database(name, sampling, every);
+                default -> database(name, base, sampling, every);
             };
             return problems.size() == before ? spec : null;
         }
@@ -237,7 +237,7 @@ public final class SourcesConfig {
             return new SourceSpec.ObjectStorePrefix(name, settings, filter, sampling, every);
         }
 
-        private SourceSpec database(String name, boolean sampling, Optional<Duration> every) {
+        private SourceSpec database(String name, Path base, boolean sampling, Optional<Duration> every) {
             String url = text("jdbc-url");
             if (url == null || !url.startsWith("jdbc:")) {
                 problems.add(label() + ": a database needs 'jdbc-url' starting with jdbc:");
@@ -248,8 +248,10 @@ public final class SourcesConfig {
                 problems.add(label() + ": 'jdbc-url' must not hold a password; name its variable in 'password-env'");
                 return null;
             }
+            String owners = text("owners-file");
+            Path ownersFile = owners == null ? null : base == null ? Path.of(owners) : base.resolve(owners).normalize();
             return new SourceSpec.Database(new DatabaseSource(name == null ? "" : name, url, text("user"),
-                    text("password-env"), strings("include"), strings("exclude"), sampling), every);
+                    text("password-env"), strings("include"), strings("exclude"), sampling, ownersFile), every);
         }
 
         private void checkKeys(String kind) {

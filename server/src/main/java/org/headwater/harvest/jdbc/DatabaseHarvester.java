@@ -107,12 +107,45 @@ public final class DatabaseHarvester {
                 "schema_unreadable", message));
         List<Observation> batch = observations(name, sourceId, dialect, snapshot, pass, progress);
         try {
+            batch.addAll(owners(source, sourceId, batch, pass));
             pass.changes = ingestor.apply("harvest:" + harvestId, batch).size();
         } catch (RuntimeException e) {
             pass.error(safeUrl, "apply_failed", "the catalog could not take the harvest: " + e.getMessage());
             return pass.finish(name, HarvestJournal.FAILED, progress, started);
         }
         return pass.finish(name, pass.errors == 0 ? HarvestJournal.OK : HarvestJournal.WITH_ERRORS, progress, started);
+    }
+
+    /**
+     * The owners file's rules for the source's present tables and views, matched against
+     * {@code schema/table} in lower case (unquoted SQL names ignore case), so a schema reads as a folder.
+     * A missing or unreadable file is an error on the harvest, not its failure.
+     */
+    private List<Observation> owners(DatabaseSource source, long sourceId, List<Observation> batch, Pass pass) {
+        if (source.ownersFile() == null) {
+            return List.of();
+        }
+        String fileUri = source.ownersFile().toUri().toString();
+        org.headwater.owners.OwnersFile file;
+        try {
+            if (!java.nio.file.Files.isRegularFile(source.ownersFile())) {
+                pass.error(fileUri, "owners_file", "No owners file at " + source.ownersFile());
+                return List.of();
+            }
+            file = org.headwater.owners.OwnersFile.parse(java.nio.file.Files.readAllLines(source.ownersFile()));
+        } catch (java.io.IOException e) {
+            pass.error(fileUri, "owners_file", "Cannot read the owners file: " + e.getMessage());
+            return List.of();
+        }
+        file.problems().forEach(p -> pass.error(fileUri, "owners_file", p.toString()));
+        // The tables of this harvest are the present ones once the batch is applied, in the same transaction.
+        Map<String, String> tables = new java.util.HashMap<>();
+        for (Observation o : batch) {
+            if (o instanceof DatasetSeen seen) {
+                tables.put(seen.uri(), seen.name().toLowerCase(java.util.Locale.ROOT).replaceFirst("\\.", "/"));
+            }
+        }
+        return org.headwater.owners.FileOwners.observe(file, tables, reader.owners().currentOfSource(sourceId));
     }
 
     private static Connection connect(DatabaseSource source, String password, Dialect dialect) throws SQLException {

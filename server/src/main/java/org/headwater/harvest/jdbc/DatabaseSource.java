@@ -12,14 +12,22 @@ import java.util.Objects;
  * @param include globs over {@code schema.table} (case-insensitive); empty means everything
  * @param exclude globs over {@code schema.table} left out even when included
  * @param sampling whether cell values may be sampled; the JDBC harvester reads none in this version
+ * @param ownersFile an owners file whose rules name tables as {@code schema/table} (a schema is a folder),
+ *     or null for none
  */
 public record DatabaseSource(String name, String jdbcUrl, String user, String passwordEnv, List<String> include,
-        List<String> exclude, boolean sampling) {
+        List<String> exclude, boolean sampling, java.nio.file.Path ownersFile) {
     public DatabaseSource {
         Objects.requireNonNull(name, "name");
         Objects.requireNonNull(jdbcUrl, "jdbcUrl");
         include = include == null ? List.of() : List.copyOf(include);
         exclude = exclude == null ? List.of() : List.copyOf(exclude);
+    }
+
+    /** A source without an owners file. */
+    public DatabaseSource(String name, String jdbcUrl, String user, String passwordEnv, List<String> include,
+            List<String> exclude, boolean sampling) {
+        this(name, jdbcUrl, user, passwordEnv, include, exclude, sampling, null);
     }
 
     /** A source with no globs and no sampling. */
