@@ -54,6 +54,9 @@ class SourcesConfigTest {
         assertThat(db.include()).containsExactly("public.*");
         assertThat(db.exclude()).containsExactly("public.tmp_*");
         assertThat(db.sampling()).isFalse();
+        // Relative to the sources file, like a folder's path.
+        assertThat(db.ownersFile()).isEqualTo(EXAMPLE.toAbsolutePath().getParent().resolve("survey-db.owners").normalize());
+        assertThat(db.ownersFile()).isRegularFile();
     }
 
     @Test
