@@ -186,7 +186,8 @@ public final class CatalogReader {
                 .orderBy(SCHEMA_VERSION.VERSION).fetch()) {
             List<ColumnView> columns = columnsOf(v.getId());
             history.add(new SchemaVersionView(v.getVersion(), instant(v.getValidFrom()), instant(v.getValidTo()), columns,
-                    Views.Drift.between(previous, columns)));
+                    Views.Drift.between(previous, columns), v.getTableVersion(), instant(v.getRecordedAt()),
+                    v.getOperation(), v.getPartitionColumns() == null ? null : parseTags(v.getPartitionColumns())));
             previous = columns;
         }
         return history;

@@ -82,7 +82,7 @@ public final class Store implements AutoCloseable {
      * When the database already reports it as applied, start-up skips Flyway entirely: loading Flyway and
      * scanning the jar for migrations was the largest part of a catalog's start time.
      */
-    static final String LATEST_MIGRATION = "10";
+    static final String LATEST_MIGRATION = "11";
 
     private static void migrate(DataSource dataSource, StoreDialect dialect) {
         if (upToDate(dataSource, dialect)) {

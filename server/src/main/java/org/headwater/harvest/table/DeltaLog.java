@@ -16,6 +16,7 @@ import java.util.TreeMap;
 import java.util.TreeSet;
 import java.util.regex.Matcher;
 import java.util.regex.Pattern;
+import org.headwater.ingest.Observation.TableVersion;
 import org.headwater.model.ColumnDef;
 
 /**
@@ -58,6 +59,7 @@ public final class DeltaLog {
         boolean complete = commits.firstKey() == 0;
         List<Map<String, Object>> versions = new ArrayList<>();
         List<Map<String, Object>> schemas = new ArrayList<>();
+        List<TableVersion> history = new ArrayList<>();
         Map<String, Long> liveFiles = new LinkedHashMap<>();
         Map<String, Long> liveRows = new LinkedHashMap<>();
         List<ColumnDef> columns = null;
@@ -117,6 +119,9 @@ public final class DeltaLog {
             v.put("timestamp", at.toString());
             v.put("operation", operation);
             versions.add(v);
+            if (columns != null) {
+                history.add(new TableVersion(Long.toString(version), at, operation, columns, partitionColumns));
+            }
             if (schemaChanged) {
                 Map<String, Object> s = new LinkedHashMap<>();
                 s.put("from_version", version);
@@ -144,7 +149,7 @@ public final class DeltaLog {
         details.put("checkpoints", List.copyOf(checkpoints));
         details.put("versions", versions);
         details.put("schemas", schemas);
-        return new TableReading("delta", columns, rows, size, modified, details);
+        return new TableReading("delta", columns, rows, size, modified, details, history);
     }
 
     private static List<JsonNode> actions(TableFile file) throws IOException, UnreadableTableException {

@@ -13,6 +13,7 @@ import java.util.List;
 import java.util.Map;
 import java.util.regex.Matcher;
 import java.util.regex.Pattern;
+import org.headwater.ingest.Observation.TableVersion;
 import org.headwater.model.ColumnDef;
 
 /**
@@ -131,6 +132,7 @@ public final class IcebergMetadata {
             }
         }
         snapshots.sort(Comparator.comparing(s -> (String) s.get("timestamp")));
+        List<TableVersion> history = history(meta, schemas, currentSchema, partitionColumns);
 
         List<Map<String, Object>> schemaList = new ArrayList<>();
         for (Map.Entry<Integer, JsonNode> s : schemas.entrySet()) {
@@ -155,7 +157,46 @@ public final class IcebergMetadata {
         details.put("partition_specs", specs);
         details.put("snapshots", snapshots);
         details.put("schemas", schemaList);
-        return new TableReading("iceberg", columns, rows, size, modified, details);
+        return new TableReading("iceberg", columns, rows, size, modified, details, history);
+    }
+
+    /**
+     * Table Spec "Snapshots": every snapshot, in sequence-number order (v2) or time order (v1), with the schema
+     * it was written with ({@code schema-id}, optional in v1: then the current schema). A schema made current
+     * after the last snapshot ("Schema Evolution" without a write) is one more version at the metadata file's
+     * {@code last-updated-ms}.
+     */
+    private static List<TableVersion> history(JsonNode meta, Map<Integer, JsonNode> schemas, JsonNode currentSchema,
+            List<Object> partitionFields) {
+        List<String> partitions = new ArrayList<>();
+        for (Object f : partitionFields) {
+            Map<?, ?> field = (Map<?, ?>) f;
+            String transform = String.valueOf(field.get("transform"));
+            partitions.add(transform.equals("identity") ? String.valueOf(field.get("source_column"))
+                    : transform + "(" + field.get("source_column") + ")");
+        }
+        List<JsonNode> snaps = new ArrayList<>();
+        meta.path("snapshots").forEach(snaps::add);
+        snaps.sort(Comparator.comparingLong((JsonNode n) -> n.path("sequence-number").asLong(0))
+                .thenComparingLong(n -> n.path("timestamp-ms").asLong()));
+        int currentId = currentSchema.path("schema-id").asInt(0);
+        List<TableVersion> versions = new ArrayList<>();
+        int lastSchemaId = -1;
+        for (JsonNode snap : snaps) {
+            JsonNode schema = snap.hasNonNull("schema-id") ? schemas.get(snap.get("schema-id").asInt()) : null;
+            if (schema == null) {
+                schema = currentSchema;
+            }
+            lastSchemaId = schema.path("schema-id").asInt(currentId);
+            versions.add(new TableVersion("snapshot " + snap.path("snapshot-id").asLong(),
+                    Instant.ofEpochMilli(snap.path("timestamp-ms").asLong()),
+                    snap.path("summary").path("operation").asText(null), columns(schema), partitions));
+        }
+        if (lastSchemaId != currentId) {
+            versions.add(new TableVersion("schema " + currentId, Instant.ofEpochMilli(meta.path("last-updated-ms").asLong()),
+                    null, columns(currentSchema), partitions));
+        }
+        return versions;
     }
 
     private static Map<String, Object> spec(int id, JsonNode fields, Map<Integer, String> namesById) {
