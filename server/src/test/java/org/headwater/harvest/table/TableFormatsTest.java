@@ -80,10 +80,10 @@ class TableFormatsTest {
             var outcome = new SourceRunner(catalog, DatabaseHarvests.NONE, env::get).run(config, null, false,
                     s -> HarvestProgress.NONE).get(0);
             assertThat(outcome.status()).isEqualTo("ok");
-            assertThat(datasetNames(catalog, "s3://wave-buoys/warehouse/"))
+            assertThat(datasetNames(catalog, server.endpoint() + "/wave-buoys/warehouse/"))
                     .containsExactly("buoy_readings/", "harbour_tides/", "quay_list.csv");
-            checkDelta(dataset(catalog, "s3://wave-buoys/warehouse/harbour_tides/"));
-            checkIceberg(dataset(catalog, "s3://wave-buoys/warehouse/buoy_readings/"));
+            checkDelta(dataset(catalog, server.endpoint() + "/wave-buoys/warehouse/harbour_tides/"));
+            checkIceberg(dataset(catalog, server.endpoint() + "/wave-buoys/warehouse/buoy_readings/"));
         }
     }
 
