@@ -36,8 +36,10 @@ public final class IcebergMetadata {
 
     public static TableReading read(List<TableFile> files) throws UnreadableTableException, IOException {
         Map<Long, TableFile> byVersion = new HashMap<>();
+        Map<String, TableFile> byName = new HashMap<>();
         TableFile hint = null;
         for (TableFile f : files) {
+            byName.put(f.name(), f);
             Matcher m = METADATA.matcher(f.name());
             if (m.matches()) {
                 byVersion.put(Long.parseLong(m.group(1)), f);
@@ -67,7 +69,7 @@ public final class IcebergMetadata {
         } catch (IOException e) {
             throw new UnreadableTableException(current.name() + " is not JSON: " + e.getMessage(), e);
         }
-        return reading(meta, current.name());
+        return reading(meta, current.name(), byName);
     }
 
     private static long versionOf(String name) {
@@ -75,7 +77,9 @@ public final class IcebergMetadata {
         return m.matches() ? Long.parseLong(m.group(1)) : -1;
     }
 
-    private static TableReading reading(JsonNode meta, String fileName) throws UnreadableTableException {
+    private static TableReading reading(JsonNode meta, String fileName, Map<String, TableFile> byName)
+            throws UnreadableTableException, IOException {
+        IcebergManifests.Files manifests = IcebergManifests.in(byName, meta.path("location").asText(null));
         int formatVersion = meta.path("format-version").asInt(1);
         // Table Spec "Table Metadata Fields": v2 lists schemas with current-schema-id; v1 may hold only "schema".
         Map<Integer, JsonNode> schemas = new LinkedHashMap<>();
@@ -117,6 +121,7 @@ public final class IcebergMetadata {
         long currentSnapshot = meta.path("current-snapshot-id").asLong(-1);
         List<Map<String, Object>> snapshots = new ArrayList<>();
         JsonNode currentSummary = null;
+        IcebergManifests.Counts currentCounts = null;
         for (JsonNode snap : meta.path("snapshots")) {
             Map<String, Object> s = new LinkedHashMap<>();
             s.put("snapshot_id", snap.path("snapshot-id").asLong());
@@ -126,9 +131,21 @@ public final class IcebergMetadata {
             s.put("timestamp", Instant.ofEpochMilli(snap.path("timestamp-ms").asLong()).toString());
             s.put("operation", snap.path("summary").path("operation").asText(null));
             s.put("schema_id", snap.hasNonNull("schema-id") ? snap.get("schema-id").asInt() : null);
+            IcebergManifests.Counts counts = null;
+            if (snap.hasNonNull("manifest-list")) {
+                try {
+                    counts = IcebergManifests.count(snap.get("manifest-list").asText(), manifests);
+                    s.put("data_files", counts.dataFiles());
+                    s.put("records", counts.records());
+                } catch (UnreadableTableException e) {
+                    // The metadata file still says what the table is; the counts of this snapshot are unknown.
+                    s.put("manifest_problem", e.getMessage());
+                }
+            }
             snapshots.add(s);
             if (snap.path("snapshot-id").asLong() == currentSnapshot) {
                 currentSummary = snap.path("summary");
+                currentCounts = counts;
             }
         }
         snapshots.sort(Comparator.comparing(s -> (String) s.get("timestamp")));
@@ -142,7 +159,8 @@ public final class IcebergMetadata {
             schemaList.add(m);
         }
         // Table Spec "Snapshot Summary": total-records and total-files-size describe the whole table at the snapshot.
-        Long rows = summaryLong(currentSummary, "total-records");
+        // The manifests' counts where they could be read, else the optional summary fields.
+        Long rows = currentCounts != null ? Long.valueOf(currentCounts.records()) : summaryLong(currentSummary, "total-records");
         Long size = summaryLong(currentSummary, "total-files-size");
         Instant modified = Instant.ofEpochMilli(meta.path("last-updated-ms").asLong());
 
@@ -153,6 +171,8 @@ public final class IcebergMetadata {
         details.put("metadata_file", fileName);
         details.put("current_schema_id", currentSchema.path("schema-id").asInt(0));
         details.put("current_snapshot_id", currentSnapshot < 0 ? null : currentSnapshot);
+        details.put("data_files", currentCounts != null ? currentCounts.dataFiles()
+                : summaryLong(currentSummary, "total-data-files"));
         details.put("partition_columns", partitionColumns);
         details.put("partition_specs", specs);
         details.put("snapshots", snapshots);
