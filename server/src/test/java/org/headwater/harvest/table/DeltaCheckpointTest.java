@@ -37,6 +37,11 @@ import org.junit.jupiter.params.provider.EnumSource;
  * written by parquet-hadoop (the reference Parquet writer) in the layout of PROTOCOL.md "Checkpoint Schema",
  * holding the state of the {@code harbour_tides} fixture after version 2; the expected values are what the
  * complete log of the same fixture gives.
+ *
+ * <p>Why not Delta's own libraries: {@code io.delta:delta-standalone_2.13:3.3.0} is not served here (Maven:
+ * "Missing POM"); {@code io.delta:delta-kernel-defaults:4.0.0} resolves but pins parquet-hadoop 1.12.3,
+ * hadoop-client-runtime 3.4.0 and Jackson 2.13.5 against this build's 1.17.1, 3.4.1 and 2.23.0, and was not
+ * tried in the time there was.
  */
 class DeltaCheckpointTest {
     private static final ObjectMapper JSON = new ObjectMapper();
