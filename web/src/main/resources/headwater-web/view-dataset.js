@@ -119,9 +119,12 @@ hw.views.dataset = async function (main, route) {
   }).catch((e) => runs.append(hw.el("p", e.message, "notice")));
   hw.get("/api/datasets/" + d.id + "/schema-history").then((versions) => {
     if (!versions.length) { history.append(hw.el("p", "No schema recorded.", "quiet")); return; }
-    history.append(hw.table(["Version", "From", "Until", "Columns", "Added", "Removed", "Retyped"], versions.map((v) => [
-      v.version, hw.when(v.valid_from), v.valid_to ? hw.when(v.valid_to) : "current", v.columns.length,
-      v.drift ? v.drift.added.join(", ") : "", v.drift ? v.drift.removed.join(", ") : "", v.drift ? v.drift.retyped.join(", ") : ""])));
+    const fromTable = versions.some((v) => v.table_version);
+    const tableCells = (v) => fromTable ? [v.table_version || "", v.recorded_at ? hw.when(v.recorded_at) : "", v.operation || ""] : [];
+    history.append(hw.table(["Version"].concat(fromTable ? ["Table version", "Recorded by the table", "Operation"] : [],
+      ["From", "Until", "Columns", "Added", "Removed", "Retyped"]), versions.map((v) => [v.version].concat(tableCells(v), [
+      hw.when(v.valid_from), v.valid_to ? hw.when(v.valid_to) : "current", v.columns.length,
+      v.drift ? v.drift.added.join(", ") : "", v.drift ? v.drift.removed.join(", ") : "", v.drift ? v.drift.retyped.join(", ") : ""]))));
   }).catch((e) => history.append(hw.el("p", e.message, "notice")));
 
   if (d.source) main.append(lastHarvest(d));

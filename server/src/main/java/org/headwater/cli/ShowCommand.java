@@ -5,6 +5,7 @@ import java.util.concurrent.Callable;
 import org.headwater.Catalog;
 import org.headwater.store.Views.ColumnView;
 import org.headwater.store.Views.DatasetView;
+import org.headwater.store.Views.SchemaVersionView;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
@@ -22,6 +23,10 @@ final class ShowCommand implements Callable<Integer> {
     @Option(names = "--as-of", paramLabel = "TIME", description = "Show it as it was then (2026-03-01 or 2026-03-01T12:00:00Z).")
     String asOf;
 
+    @Option(names = "--history", description = "Show the dataset's schema versions instead, oldest first, with what"
+            + " each added, removed or retyped (for a Delta or Iceberg table: its own versions, times and operations).")
+    boolean history;
+
     @Mixin
     CatalogOptions catalog;
 
@@ -38,6 +43,10 @@ final class ShowCommand implements Callable<Integer> {
         try (Catalog open = catalog.open()) {
             DatasetView d = open.reader().dataset(DatasetKeys.one(open.reader(), key).id(), at)
                     .orElseThrow(() -> new Problems.UsageProblem("dataset vanished while reading it"));
+            if (history) {
+                printHistory(out, open.reader().schemaHistory(d.id()));
+                return Main.OK;
+            }
             if (output.json) {
                 Output.printJson(out, d);
                 return Main.OK;
@@ -80,5 +89,23 @@ final class ShowCommand implements Callable<Integer> {
         }
         out.flush();
         return Main.OK;
+    }
+
+    private void printHistory(java.io.PrintWriter out, java.util.List<SchemaVersionView> versions) {
+        if (output.json) {
+            Output.printJson(out, versions);
+            return;
+        }
+        for (SchemaVersionView v : versions) {
+            String table = v.tableVersion() == null ? ""
+                    : "  table version " + v.tableVersion() + (v.recordedAt() == null ? "" : " at " + v.recordedAt())
+                            + (v.operation() == null ? "" : " (" + v.operation() + ")");
+            out.printf("version %d: %d columns, in the catalog from %s%s%n", v.version(), v.columns().size(),
+                    v.validFrom(), table);
+            v.drift().added().forEach(c -> out.printf("    + %s%n", c));
+            v.drift().removed().forEach(c -> out.printf("    - %s%n", c));
+            v.drift().retyped().forEach(c -> out.printf("    ~ %s%n", c));
+        }
+        out.flush();
     }
 }

@@ -284,6 +284,8 @@ public final class FolderHarvester {
                             null, false, null, result.error(), null));
                 } else {
                     Reading r = result.reading();
+                    // Versions first: the dataset's columns then equal the newest version's and add no other.
+                    add(new Observation.TableVersionsSeen(uri, name, sourceId, result.versions()));
                     add(new DatasetSeen(uri, name, r.kind(), sourceId, r.format(), result.sizeBytes(),
                             result.modified(), null, r.rowCount(), r.rowCountExact(), Json.canonical(r.details()), null,
                             r.columns()));

@@ -11,6 +11,7 @@ import java.util.TreeMap;
 import java.util.regex.Matcher;
 import org.headwater.harvest.format.Reading;
 import org.headwater.harvest.table.DeltaLog;
+import org.headwater.ingest.Observation.TableVersion;
 import org.headwater.harvest.table.IcebergMetadata;
 import org.headwater.harvest.table.TableFile;
 import org.headwater.harvest.table.TableReading;
@@ -28,8 +29,10 @@ final class TableFolders {
      * One table folder read.
      *
      * @param reading the table as a dataset reading, or null with {@code error} saying why
+     * @param versions the table's own versions, oldest first (empty when unreadable)
      */
-    record Result(String format, Reading reading, Long sizeBytes, Instant modified, String error) {
+    record Result(String format, Reading reading, Long sizeBytes, Instant modified, String error,
+            List<TableVersion> versions) {
     }
 
     private TableFolders() {
@@ -77,11 +80,12 @@ final class TableFolders {
             TableReading t = format == Format.ICEBERG ? IcebergMetadata.read(files) : DeltaLog.read(files);
             Reading reading = new Reading(t.format(), DatasetKind.TABLE, t.columns(), t.rowCount(), t.rowCount() != null,
                     t.details());
-            return new Result(word, reading, t.sizeBytes(), t.modified(), null);
+            return new Result(word, reading, t.sizeBytes(), t.modified(), null, t.versions());
         } catch (UnreadableTableException e) {
-            return new Result(word, null, null, null, e.getMessage());
+            return new Result(word, null, null, null, e.getMessage(), List.of());
         } catch (IOException | RuntimeException e) {
-            return new Result(word, null, null, null, "Could not read the table's metadata: " + e.getMessage());
+            return new Result(word, null, null, null, "Could not read the table's metadata: " + e.getMessage(),
+                    List.of());
         }
     }
 

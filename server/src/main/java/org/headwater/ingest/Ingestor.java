@@ -38,6 +38,7 @@ public final class Ingestor {
     private final RunApplier runs = new RunApplier(edges);
     private final ReferenceApplier references = new ReferenceApplier();
     private final FreshnessApplier freshness = new FreshnessApplier();
+    private final TableVersionApplier tableVersions = new TableVersionApplier();
 
     public Ingestor(Store store, Clock clock) {
         this.store = store;
@@ -132,6 +133,8 @@ public final class Ingestor {
             freshness.apply(tx, o);
         } else if (observation instanceof Observation.FreshnessChecked o) {
             freshness.apply(tx, o);
+        } else if (observation instanceof Observation.TableVersionsSeen o) {
+            tableVersions.apply(tx, o);
         } else {
             throw new IllegalArgumentException("No applier for " + observation.getClass().getSimpleName());
         }

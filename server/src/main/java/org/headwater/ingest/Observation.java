@@ -34,6 +34,38 @@ public sealed interface Observation {
         }
     }
 
+    /**
+     * A table format's own history of a dataset (Delta commits, Iceberg snapshots), oldest first. Each version
+     * not yet known becomes a schema version with the table's own timestamp; known ones are left alone, so a
+     * log that lost its early commits to cleanup takes nothing away. Send it before the table's
+     * {@link DatasetSeen}, whose columns then equal the newest version and add nothing.
+     */
+    record TableVersionsSeen(String uri, String name, Long sourceId, List<TableVersion> versions)
+            implements Observation {
+        public TableVersionsSeen {
+            Objects.requireNonNull(uri, "uri");
+            Objects.requireNonNull(name, "name");
+            versions = List.copyOf(versions);
+        }
+    }
+
+    /**
+     * One version of a table as the table recorded it.
+     *
+     * @param version the table's own name for it ({@code 12} for a Delta commit, {@code snapshot 3051} or
+     *     {@code schema 2} for Iceberg), unique within the table
+     * @param recordedAt when the table says it happened, or null when it does not say
+     * @param operation what the table says was done ({@code WRITE}, {@code append}), or null
+     */
+    record TableVersion(String version, Instant recordedAt, String operation, List<ColumnDef> columns,
+            List<String> partitionColumns) {
+        public TableVersion {
+            Objects.requireNonNull(version, "version");
+            columns = List.copyOf(columns);
+            partitionColumns = List.copyOf(partitionColumns);
+        }
+    }
+
     /** A dataset that was seen before is no longer there; its history stays. */
     record DatasetGone(String uri) implements Observation {
         public DatasetGone {

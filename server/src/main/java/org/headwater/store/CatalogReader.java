@@ -186,7 +186,8 @@ public final class CatalogReader {
                 .orderBy(SCHEMA_VERSION.VERSION).fetch()) {
             List<ColumnView> columns = columnsOf(v.getId());
             history.add(new SchemaVersionView(v.getVersion(), instant(v.getValidFrom()), instant(v.getValidTo()), columns,
-                    Views.Drift.between(previous, columns)));
+                    Views.Drift.between(previous, columns), v.getTableVersion(), instant(v.getRecordedAt()),
+                    v.getOperation(), v.getPartitionColumns() == null ? null : parseTags(v.getPartitionColumns())));
             previous = columns;
         }
         return history;
@@ -376,11 +377,13 @@ public final class CatalogReader {
     /** Files of one source that are present now, keyed by URI, for incremental harvest. */
     public Map<String, KnownFile> knownFiles(long sourceId) {
         Map<String, KnownFile> known = new HashMap<>();
-        // Only files and objects: tables and views that scripts define belong to the source but are no files of it.
+        // Only files and objects (s3: on AWS, the object's http(s) address on another store): tables and views
+        // that scripts define belong to the source but are no files of it.
         db.select(DATASET.URI, DATASET_STATE.SIZE_BYTES, DATASET_STATE.MODIFIED_AT, DATASET_STATE.CONTENT_HASH)
                 .from(DATASET).join(DATASET_STATE).on(DATASET_STATE.DATASET_ID.eq(DATASET.ID))
                 .where(DATASET.SOURCE_ID.eq(sourceId), DATASET_STATE.VALID_TO.isNull(),
-                        DATASET.URI.startsWith("file:").or(DATASET.URI.startsWith("s3:")))
+                        DATASET.URI.startsWith("file:").or(DATASET.URI.startsWith("s3:"))
+                                .or(DATASET.URI.startsWith("http:")).or(DATASET.URI.startsWith("https:")))
                 .forEach(r -> known.put(r.value1(), new KnownFile(r.value1(), r.value2(), instant(r.value3()),
                         FileRole.DATASET, null, r.value4())));
         db.select(SCRIPT.URI, SCRIPT_STATE.SIZE_BYTES, SCRIPT_STATE.MODIFIED_AT, SCRIPT_STATE.CONTENT_HASH)

@@ -18,9 +18,16 @@ public final class Views {
     public record ColumnView(int ordinal, String name, String type, boolean nullable) {
     }
 
-    /** One schema version of a dataset, for its history, with how it differs from the version before. */
+    /**
+     * One schema version of a dataset, for its history, with how it differs from the version before.
+     *
+     * @param tableVersion for a table format, the table's own version ({@code 12}, {@code snapshot 3051}); else null
+     * @param recordedAt for a table format, when the table says the version was made (its clock, not the catalog's)
+     * @param operation for a table format, what the table says was done, or null
+     * @param partitionColumns for a table format, the partition columns of that version; else null
+     */
     public record SchemaVersionView(int version, Instant validFrom, Instant validTo, List<ColumnView> columns,
-            Drift drift) {
+            Drift drift, String tableVersion, Instant recordedAt, String operation, List<String> partitionColumns) {
     }
 
     /** Columns added, removed and retyped (as {@code name: old -> new}) since the previous schema version. */

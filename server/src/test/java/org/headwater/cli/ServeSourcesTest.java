@@ -64,7 +64,8 @@ class ServeSourcesTest {
             assertThat(sources).hasSize(2);
             assertThat(sources.get(0).get("name").asText()).isEqualTo("ovens");
             assertThat(sources.get(0).get("every_seconds").isNull()).isTrue();
-            assertThat(sources.get(1).get("root").asText()).isEqualTo("s3://crate-ledger/");
+            // With an endpoint, the root is the bucket's path-style address on that store (README, "Object stores").
+            assertThat(sources.get(1).get("root").asText()).isEqualTo("http://127.0.0.1:1/crate-ledger/");
             assertThat(sources.get(1).get("every_seconds").asLong()).isEqualTo(12 * 3600);
             assertThat(listed.body()).doesNotContain("CRATE_LEDGER_KEY_VARIABLE").doesNotContain("SECRET");
 

@@ -2,6 +2,8 @@ package org.headwater.testing;
 
 import java.net.URI;
 import java.time.Duration;
+import java.util.Set;
+import java.util.concurrent.ConcurrentHashMap;
 import org.gaul.s3proxy.S3Proxy;
 import org.gaul.s3proxy.auth.AuthenticationType;
 import org.gaul.s3proxy.nio2blob.TransientNio2BlobStore;
@@ -26,15 +28,18 @@ public final class S3TestServer implements AutoCloseable {
 
     private final S3Proxy proxy;
     private final S3Client client;
+    private final Set<String> denied;
 
-    private S3TestServer(S3Proxy proxy, S3Client client) {
+    private S3TestServer(S3Proxy proxy, S3Client client, Set<String> denied) {
         this.proxy = proxy;
         this.client = client;
+        this.denied = denied;
     }
 
     public static S3TestServer start() throws Exception {
+        Set<String> denied = ConcurrentHashMap.newKeySet();
         S3Proxy proxy = S3Proxy.builder()
-                .blobStore(new TransientNio2BlobStore())
+                .blobStore(new DenyingBlobStore(new TransientNio2BlobStore(), denied))
                 .endpoint(URI.create("http://127.0.0.1:0"))
                 .awsAuthentication(AuthenticationType.AWS_V2_OR_V4, ACCESS_KEY, SECRET_KEY)
                 .build();
@@ -56,7 +61,21 @@ public final class S3TestServer implements AutoCloseable {
                 .httpClientBuilder(ApacheHttpClient.builder().maxConnections(16))
                 .credentialsProvider(StaticCredentialsProvider.create(AwsBasicCredentials.create(ACCESS_KEY, SECRET_KEY)))
                 .build();
-        return new S3TestServer(proxy, client);
+        return new S3TestServer(proxy, client, denied);
+    }
+
+    /**
+     * From now on the server answers {@code 403 AccessDenied} to every read of the bucket ({@code "bucket"}) or
+     * of one object ({@code "bucket/key"}), as a store does when a bucket policy denies the caller; writes
+     * through {@link #client()} still work.
+     */
+    public void deny(String bucketOrObject) {
+        denied.add(bucketOrObject);
+    }
+
+    /** Lifts a {@link #deny}. */
+    public void allow(String bucketOrObject) {
+        denied.remove(bucketOrObject);
     }
 
     public URI endpoint() {

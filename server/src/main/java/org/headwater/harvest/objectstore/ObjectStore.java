@@ -150,7 +150,7 @@ public final class ObjectStore implements StorageBackend, AutoCloseable {
     }
 
     private String uriOfKey(String key) {
-        return "s3://" + settings.bucket() + "/" + key;
+        return settings.objectUri(key);
     }
 
     @Override

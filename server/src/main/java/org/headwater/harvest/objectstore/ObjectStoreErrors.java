@@ -27,7 +27,7 @@ final class ObjectStoreErrors {
     }
 
     static String describe(RuntimeException e, ObjectStoreSettings settings) {
-        String where = settings.url() + (settings.endpoint() == null ? "" : " at " + settings.endpoint());
+        String where = "s3://" + settings.bucket() + "/" + settings.prefix() + (settings.endpoint() == null ? "" : " at " + settings.endpoint());
         if (e instanceof AwsServiceException s) {
             String code = s.awsErrorDetails() == null ? null : s.awsErrorDetails().errorCode();
             String meaning = code == null ? null : CODES.get(code);

@@ -65,9 +65,28 @@ public record ObjectStoreSettings(String bucket, String prefix, URI endpoint, St
                 DEFAULT_SAMPLE_KIB * 1024, DEFAULT_MAX_ATTEMPTS, null);
     }
 
-    /** The root as a URL: {@code s3://bucket/prefix}. */
+    /** The root as a URL: {@code s3://bucket/prefix}, or on another endpoint as {@link #objectUri} says. */
     public String url() {
-        return "s3://" + bucket + "/" + prefix;
+        return objectUri(prefix);
+    }
+
+    /**
+     * The URI of an object (or of the root, for the prefix). On AWS itself: {@code s3://bucket/key}. On another
+     * endpoint the bucket name alone does not say which store holds it, so the URI is the object's path-style
+     * address on that endpoint ({@code http://host:port/bucket/key}, S3 API "path-style requests"): two stores
+     * with a bucket of the same name then never share a dataset.
+     */
+    public String objectUri(String key) {
+        if (endpoint == null) {
+            return "s3://" + bucket + "/" + key;
+        }
+        String base = endpoint.getPath() == null ? "" : endpoint.getPath().replaceAll("/+$", "");
+        try {
+            return new URI(endpoint.getScheme(), endpoint.getRawAuthority(), base + "/" + bucket + "/" + key, null, null)
+                    .toASCIIString();
+        } catch (java.net.URISyntaxException e) {
+            throw new IllegalArgumentException("The endpoint and key make no URI: " + endpoint + ", " + key, e);
+        }
     }
 
     public ObjectStoreSettings withEndpoint(URI value, boolean pathStyleValue) {

@@ -16,6 +16,7 @@ import java.util.TreeMap;
 import java.util.TreeSet;
 import java.util.regex.Matcher;
 import java.util.regex.Pattern;
+import org.headwater.ingest.Observation.TableVersion;
 import org.headwater.model.ColumnDef;
 
 /**
@@ -24,9 +25,9 @@ import org.headwater.model.ColumnDef;
  * one action per line; the table's state is the replay of {@code metaData}, {@code add} and {@code remove}
  * actions in version order; {@code commitInfo} carries the operation and its timestamp.
  *
- * <p>Parquet checkpoints are recognised (their versions are reported) but not replayed: when the log no
- * longer starts at version 0 and no later commit restates the metadata, the table is reported unreadable
- * rather than guessed.
+ * <p>When the log no longer starts at version 0 (commits before a checkpoint may be cleaned up, "Checkpoints"),
+ * the state starts from the newest Parquet checkpoint after which every commit is still there, and the commits
+ * after it are replayed. Without such a checkpoint the table is reported unreadable rather than guessed.
  */
 public final class DeltaLog {
     private static final ObjectMapper JSON = new ObjectMapper();
@@ -41,7 +42,7 @@ public final class DeltaLog {
 
     public static TableReading read(List<TableFile> files) throws UnreadableTableException, IOException {
         TreeMap<Long, TableFile> commits = new TreeMap<>();
-        TreeSet<Long> checkpoints = new TreeSet<>();
+        TreeMap<Long, List<TableFile>> checkpointParts = new TreeMap<>();
         for (TableFile f : files) {
             Matcher c = COMMIT.matcher(f.name());
             if (c.matches()) {
@@ -49,15 +50,18 @@ public final class DeltaLog {
             }
             Matcher p = CHECKPOINT.matcher(f.name());
             if (p.matches()) {
-                checkpoints.add(Long.parseLong(p.group(1)));
+                checkpointParts.computeIfAbsent(Long.parseLong(p.group(1)), k -> new ArrayList<>()).add(f);
             }
         }
-        if (commits.isEmpty()) {
+        TreeSet<Long> checkpoints = new TreeSet<>(checkpointParts.keySet());
+        if (commits.isEmpty() && checkpoints.isEmpty()) {
             throw new UnreadableTableException("The _delta_log folder holds no commit files");
         }
-        boolean complete = commits.firstKey() == 0;
+        Long from = startingCheckpoint(commits, checkpoints);
+        boolean complete = from != null || unbroken(commits, 0);
         List<Map<String, Object>> versions = new ArrayList<>();
         List<Map<String, Object>> schemas = new ArrayList<>();
+        List<TableVersion> history = new ArrayList<>();
         Map<String, Long> liveFiles = new LinkedHashMap<>();
         Map<String, Long> liveRows = new LinkedHashMap<>();
         List<ColumnDef> columns = null;
@@ -66,7 +70,46 @@ public final class DeltaLog {
         String schemaString = null;
         Map<String, Object> protocol = null;
         Instant modified = null;
-        for (Map.Entry<Long, TableFile> e : commits.entrySet()) {
+        if (from != null) {
+            List<TableFile> parts = checkpointParts.get(from);
+            parts.sort(java.util.Comparator.comparing(TableFile::name));
+            List<byte[]> bytes = new ArrayList<>();
+            for (TableFile part : parts) {
+                bytes.add(part.read());
+            }
+            DeltaCheckpoint.State state = DeltaCheckpoint.read(bytes);
+            tableId = state.tableId();
+            schemaString = state.schemaString();
+            columns = columns(schemaString);
+            partitionColumns = state.partitionColumns();
+            if (state.minReaderVersion() != null) {
+                protocol = new LinkedHashMap<>();
+                protocol.put("min_reader_version", state.minReaderVersion());
+                protocol.put("min_writer_version", state.minWriterVersion());
+            }
+            liveFiles.putAll(state.files());
+            liveRows.putAll(state.rows());
+            // The checkpoint's own version: its commit's time and operation if that commit is still there, else
+            // the time the checkpoint was written.
+            TableFile commit = commits.get(from);
+            CommitInfo info = commit == null ? null : commitInfo(commit);
+            Instant at = info != null && info.timestamp() != null ? info.timestamp() : parts.get(0).modified();
+            modified = at;
+            Map<String, Object> v = new LinkedHashMap<>();
+            v.put("version", from);
+            v.put("timestamp", at.toString());
+            v.put("operation", info == null ? null : info.operation());
+            v.put("from_checkpoint", true);
+            versions.add(v);
+            history.add(new TableVersion(Long.toString(from), at, info == null ? null : info.operation(), columns,
+                    partitionColumns));
+            Map<String, Object> sv = new LinkedHashMap<>();
+            sv.put("from_version", from);
+            sv.put("timestamp", at.toString());
+            sv.put("columns", columnMaps(columns));
+            schemas.add(sv);
+        }
+        for (Map.Entry<Long, TableFile> e : (from == null ? commits : commits.tailMap(from, false)).entrySet()) {
             long version = e.getKey();
             Instant timestamp = null;
             String operation = null;
@@ -117,6 +160,9 @@ public final class DeltaLog {
             v.put("timestamp", at.toString());
             v.put("operation", operation);
             versions.add(v);
+            if (columns != null) {
+                history.add(new TableVersion(Long.toString(version), at, operation, columns, partitionColumns));
+            }
             if (schemaChanged) {
                 Map<String, Object> s = new LinkedHashMap<>();
                 s.put("from_version", version);
@@ -126,8 +172,8 @@ public final class DeltaLog {
             }
         }
         if (columns == null) {
-            throw new UnreadableTableException("The table's schema is only in a checkpoint (log starts at version "
-                    + commits.firstKey() + "); Parquet checkpoints are not read");
+            throw new UnreadableTableException("The log starts at version " + commits.firstKey()
+                    + " and no checkpoint holds the table's state before it");
         }
         Long rows = null;
         if (complete && liveRows.values().stream().allMatch(r -> r != null)) {
@@ -137,14 +183,53 @@ public final class DeltaLog {
         Map<String, Object> details = new LinkedHashMap<>();
         details.put("table_format", "delta");
         details.put("table_id", tableId);
-        details.put("current_version", commits.lastKey());
+        details.put("current_version", Math.max(commits.isEmpty() ? -1 : commits.lastKey(), from == null ? -1 : from));
+        details.put("checkpoint_read", from);
         details.put("partition_columns", partitionColumns);
         details.put("data_files", complete ? liveFiles.size() : null);
         details.put("protocol", protocol);
         details.put("checkpoints", List.copyOf(checkpoints));
         details.put("versions", versions);
         details.put("schemas", schemas);
-        return new TableReading("delta", columns, rows, size, modified, details);
+        return new TableReading("delta", columns, rows, size, modified, details, history);
+    }
+
+    /**
+     * The checkpoint to start from when the commits do not go back to version 0: the newest one after which
+     * every commit up to the last is still there (PROTOCOL.md "Checkpoints": readers start at the newest one).
+     */
+    private static Long startingCheckpoint(TreeMap<Long, TableFile> commits, TreeSet<Long> checkpoints) {
+        if (!commits.isEmpty() && unbroken(commits, 0)) {
+            return null;
+        }
+        for (Long c : checkpoints.descendingSet()) {
+            if (unbroken(commits, c + 1)) {
+                return c;
+            }
+        }
+        return null;
+    }
+
+    /** Whether the commits from {@code first} to the last one are all there (none, when the last is before it). */
+    private static boolean unbroken(TreeMap<Long, TableFile> commits, long first) {
+        if (commits.isEmpty() || commits.lastKey() < first) {
+            return first == 0 ? false : true;
+        }
+        return commits.containsKey(first) && commits.tailMap(first, true).size() == commits.lastKey() - first + 1;
+    }
+
+    private record CommitInfo(Instant timestamp, String operation) {
+    }
+
+    private static CommitInfo commitInfo(TableFile commit) throws IOException, UnreadableTableException {
+        for (JsonNode action : actions(commit)) {
+            if (action.has("commitInfo")) {
+                JsonNode info = action.get("commitInfo");
+                return new CommitInfo(info.hasNonNull("timestamp") ? Instant.ofEpochMilli(info.get("timestamp").asLong())
+                        : null, info.path("operation").asText(null));
+            }
+        }
+        return null;
     }
 
     private static List<JsonNode> actions(TableFile file) throws IOException, UnreadableTableException {
@@ -186,7 +271,7 @@ public final class DeltaLog {
     }
 
     /** PROTOCOL.md "Per-file Statistics": {@code numRecords} in the add action's stats JSON. */
-    private static Long numRecords(String stats) {
+    static Long numRecords(String stats) {
         if (stats == null) {
             return null;
         }

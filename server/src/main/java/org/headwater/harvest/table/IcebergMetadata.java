@@ -13,6 +13,7 @@ import java.util.List;
 import java.util.Map;
 import java.util.regex.Matcher;
 import java.util.regex.Pattern;
+import org.headwater.ingest.Observation.TableVersion;
 import org.headwater.model.ColumnDef;
 
 /**
@@ -35,8 +36,10 @@ public final class IcebergMetadata {
 
     public static TableReading read(List<TableFile> files) throws UnreadableTableException, IOException {
         Map<Long, TableFile> byVersion = new HashMap<>();
+        Map<String, TableFile> byName = new HashMap<>();
         TableFile hint = null;
         for (TableFile f : files) {
+            byName.put(f.name(), f);
             Matcher m = METADATA.matcher(f.name());
             if (m.matches()) {
                 byVersion.put(Long.parseLong(m.group(1)), f);
@@ -66,7 +69,7 @@ public final class IcebergMetadata {
         } catch (IOException e) {
             throw new UnreadableTableException(current.name() + " is not JSON: " + e.getMessage(), e);
         }
-        return reading(meta, current.name());
+        return reading(meta, current.name(), byName);
     }
 
     private static long versionOf(String name) {
@@ -74,7 +77,9 @@ public final class IcebergMetadata {
         return m.matches() ? Long.parseLong(m.group(1)) : -1;
     }
 
-    private static TableReading reading(JsonNode meta, String fileName) throws UnreadableTableException {
+    private static TableReading reading(JsonNode meta, String fileName, Map<String, TableFile> byName)
+            throws UnreadableTableException, IOException {
+        IcebergManifests.Files manifests = IcebergManifests.in(byName, meta.path("location").asText(null));
         int formatVersion = meta.path("format-version").asInt(1);
         // Table Spec "Table Metadata Fields": v2 lists schemas with current-schema-id; v1 may hold only "schema".
         Map<Integer, JsonNode> schemas = new LinkedHashMap<>();
@@ -116,6 +121,7 @@ public final class IcebergMetadata {
         long currentSnapshot = meta.path("current-snapshot-id").asLong(-1);
         List<Map<String, Object>> snapshots = new ArrayList<>();
         JsonNode currentSummary = null;
+        IcebergManifests.Counts currentCounts = null;
         for (JsonNode snap : meta.path("snapshots")) {
             Map<String, Object> s = new LinkedHashMap<>();
             s.put("snapshot_id", snap.path("snapshot-id").asLong());
@@ -125,12 +131,25 @@ public final class IcebergMetadata {
             s.put("timestamp", Instant.ofEpochMilli(snap.path("timestamp-ms").asLong()).toString());
             s.put("operation", snap.path("summary").path("operation").asText(null));
             s.put("schema_id", snap.hasNonNull("schema-id") ? snap.get("schema-id").asInt() : null);
+            IcebergManifests.Counts counts = null;
+            if (snap.hasNonNull("manifest-list")) {
+                try {
+                    counts = IcebergManifests.count(snap.get("manifest-list").asText(), manifests);
+                    s.put("data_files", counts.dataFiles());
+                    s.put("records", counts.records());
+                } catch (UnreadableTableException e) {
+                    // The metadata file still says what the table is; the counts of this snapshot are unknown.
+                    s.put("manifest_problem", e.getMessage());
+                }
+            }
             snapshots.add(s);
             if (snap.path("snapshot-id").asLong() == currentSnapshot) {
                 currentSummary = snap.path("summary");
+                currentCounts = counts;
             }
         }
         snapshots.sort(Comparator.comparing(s -> (String) s.get("timestamp")));
+        List<TableVersion> history = history(meta, schemas, currentSchema, partitionColumns);
 
         List<Map<String, Object>> schemaList = new ArrayList<>();
         for (Map.Entry<Integer, JsonNode> s : schemas.entrySet()) {
@@ -140,7 +159,8 @@ public final class IcebergMetadata {
             schemaList.add(m);
         }
         // Table Spec "Snapshot Summary": total-records and total-files-size describe the whole table at the snapshot.
-        Long rows = summaryLong(currentSummary, "total-records");
+        // The manifests' counts where they could be read, else the optional summary fields.
+        Long rows = currentCounts != null ? Long.valueOf(currentCounts.records()) : summaryLong(currentSummary, "total-records");
         Long size = summaryLong(currentSummary, "total-files-size");
         Instant modified = Instant.ofEpochMilli(meta.path("last-updated-ms").asLong());
 
@@ -151,11 +171,52 @@ public final class IcebergMetadata {
         details.put("metadata_file", fileName);
         details.put("current_schema_id", currentSchema.path("schema-id").asInt(0));
         details.put("current_snapshot_id", currentSnapshot < 0 ? null : currentSnapshot);
+        details.put("data_files", currentCounts != null ? currentCounts.dataFiles()
+                : summaryLong(currentSummary, "total-data-files"));
         details.put("partition_columns", partitionColumns);
         details.put("partition_specs", specs);
         details.put("snapshots", snapshots);
         details.put("schemas", schemaList);
-        return new TableReading("iceberg", columns, rows, size, modified, details);
+        return new TableReading("iceberg", columns, rows, size, modified, details, history);
+    }
+
+    /**
+     * Table Spec "Snapshots": every snapshot, in sequence-number order (v2) or time order (v1), with the schema
+     * it was written with ({@code schema-id}, optional in v1: then the current schema). A schema made current
+     * after the last snapshot ("Schema Evolution" without a write) is one more version at the metadata file's
+     * {@code last-updated-ms}.
+     */
+    private static List<TableVersion> history(JsonNode meta, Map<Integer, JsonNode> schemas, JsonNode currentSchema,
+            List<Object> partitionFields) {
+        List<String> partitions = new ArrayList<>();
+        for (Object f : partitionFields) {
+            Map<?, ?> field = (Map<?, ?>) f;
+            String transform = String.valueOf(field.get("transform"));
+            partitions.add(transform.equals("identity") ? String.valueOf(field.get("source_column"))
+                    : transform + "(" + field.get("source_column") + ")");
+        }
+        List<JsonNode> snaps = new ArrayList<>();
+        meta.path("snapshots").forEach(snaps::add);
+        snaps.sort(Comparator.comparingLong((JsonNode n) -> n.path("sequence-number").asLong(0))
+                .thenComparingLong(n -> n.path("timestamp-ms").asLong()));
+        int currentId = currentSchema.path("schema-id").asInt(0);
+        List<TableVersion> versions = new ArrayList<>();
+        int lastSchemaId = -1;
+        for (JsonNode snap : snaps) {
+            JsonNode schema = snap.hasNonNull("schema-id") ? schemas.get(snap.get("schema-id").asInt()) : null;
+            if (schema == null) {
+                schema = currentSchema;
+            }
+            lastSchemaId = schema.path("schema-id").asInt(currentId);
+            versions.add(new TableVersion("snapshot " + snap.path("snapshot-id").asLong(),
+                    Instant.ofEpochMilli(snap.path("timestamp-ms").asLong()),
+                    snap.path("summary").path("operation").asText(null), columns(schema), partitions));
+        }
+        if (lastSchemaId != currentId) {
+            versions.add(new TableVersion("schema " + currentId, Instant.ofEpochMilli(meta.path("last-updated-ms").asLong()),
+                    null, columns(currentSchema), partitions));
+        }
+        return versions;
     }
 
     private static Map<String, Object> spec(int id, JsonNode fields, Map<Integer, String> namesById) {

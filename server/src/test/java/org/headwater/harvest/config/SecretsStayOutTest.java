@@ -80,8 +80,8 @@ class SecretsStayOutTest {
             String api = apiAnswers(catalog);
             String logs = captured.toString(StandardCharsets.UTF_8);
             // The scans see what they should: the object's URI is in the store and the API, the outcome in the logs.
-            assertThat(store).contains("s3://kelp-survey/plots.csv");
-            assertThat(api).contains("s3://kelp-survey/plots.csv").contains("SignatureDoesNotMatch");
+            assertThat(store).contains(server.endpoint() + "/kelp-survey/plots.csv");
+            assertThat(api).contains(server.endpoint() + "/kelp-survey/plots.csv").contains("SignatureDoesNotMatch");
             assertThat(logs).contains("kelp-wrong");
             assertThat(catalog.index().search("plots", null, 10)).isNotEmpty();
             assertThat(index).contains("plot");

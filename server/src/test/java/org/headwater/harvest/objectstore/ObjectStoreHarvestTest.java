@@ -79,23 +79,23 @@ class ObjectStoreHarvestTest {
 
             // expected: the keys put under raw/ (S3 ListObjectsV2 lists a prefix, Amazon S3 API Reference), hidden
             // names left out as in a folder; the partitions of tides/ form one set.
-            assertThat(datasetNames(catalog, "s3://harbour-lake/raw/")).containsExactly(
+            assertThat(datasetNames(catalog, server.endpoint() + "/harbour-lake/raw/")).containsExactly(
                     "gauges.parquet", "notes.json", "stations.csv", "tides/month=*/levels.csv");
             // expected: the same bytes harvested from a local folder, the path the folder tests check.
             for (String name : List.of("stations.csv", "notes.json", "gauges.parquet")) {
-                DatasetView s3 = dataset(catalog, "s3://harbour-lake/raw/" + name);
+                DatasetView s3 = dataset(catalog, server.endpoint() + "/harbour-lake/raw/" + name);
                 DatasetView local = dataset(catalog, folder.toRealPath().resolve(name).toUri().toString());
                 assertThat(columns(s3)).as(name).isEqualTo(columns(local));
                 assertThat(s3.format()).isEqualTo(local.format());
                 assertThat(s3.sizeBytes()).isEqualTo((long) files.get(name).length);
             }
             // expected: parquet-mr's schema (the writer's MessageType) names the columns in order.
-            assertThat(columns(dataset(catalog, "s3://harbour-lake/raw/gauges.parquet")))
+            assertThat(columns(dataset(catalog, server.endpoint() + "/harbour-lake/raw/gauges.parquet")))
                     .extracting(c -> c.split(" ")[0])
                     .containsExactlyElementsOf(READINGS.getFields().stream().map(Type::getName).toList());
             // The store's ETag is the content identity of an object: an MD5 of the bytes for a single-part upload
             // (Amazon S3 API Reference, "Common Response Headers": ETag).
-            assertThat(dataset(catalog, "s3://harbour-lake/raw/stations.csv").contentHash())
+            assertThat(dataset(catalog, server.endpoint() + "/harbour-lake/raw/stations.csv").contentHash())
                     .isEqualTo("etag:" + md5(files.get("stations.csv")));
         }
     }
@@ -108,12 +108,12 @@ class ObjectStoreHarvestTest {
         files.forEach((name, bytes) -> server.put("harbour-sample", name, bytes));
         try (Catalog catalog = TestCatalogs.fresh(temp.resolve("catalog"))) {
             run(catalog, source("sample", "s3://harbour-sample/", "GAUGE_SECRET", "    sample-kib: 1\n"));
-            DatasetView csv = dataset(catalog, "s3://harbour-sample/stations.csv");
+            DatasetView csv = dataset(catalog, server.endpoint() + "/harbour-sample/stations.csv");
             // A 1 KiB head of a longer CSV gives an estimated row count, not an exact one: only the head was read.
             assertThat(files.get("stations.csv").length).isGreaterThan(1024);
             assertThat(csv.rowCountExact()).isFalse();
             // expected: parquet-mr's footer (written by ExampleParquetWriter) holds the row count: 3,000 rows.
-            DatasetView parquet = dataset(catalog, "s3://harbour-sample/gauges.parquet");
+            DatasetView parquet = dataset(catalog, server.endpoint() + "/harbour-sample/gauges.parquet");
             assertThat(parquet.rowCount()).isEqualTo(3_000L);
             assertThat(parquet.rowCountExact()).isTrue();
         }
@@ -137,9 +137,9 @@ class ObjectStoreHarvestTest {
             server.delete("harbour-again", "notes.json");
             HarvestSummary third = run(catalog, config).get(0).summary();
             assertThat(third.filesUnchanged()).isEqualTo(files.size() - 2);
-            assertThat(columns(dataset(catalog, "s3://harbour-again/stations.csv")))
+            assertThat(columns(dataset(catalog, server.endpoint() + "/harbour-again/stations.csv")))
                     .containsExactly("station text", "depth_m integer");
-            assertThat(dataset(catalog, "s3://harbour-again/notes.json").present()).isFalse();
+            assertThat(dataset(catalog, server.endpoint() + "/harbour-again/notes.json").present()).isFalse();
             assertThat(third.removed()).isEqualTo(1);
         }
     }
@@ -156,19 +156,20 @@ class ObjectStoreHarvestTest {
         }
         try (Catalog catalog = TestCatalogs.fresh(temp.resolve("catalog"))) {
             run(catalog, source("harbour", "s3://harbour-errors/", "GAUGE_SECRET", ""));
-            int before = datasetNames(catalog, "s3://harbour-errors/").size();
+            int before = datasetNames(catalog, server.endpoint() + "/harbour-errors/").size();
 
             // The same source, now with a wrong secret, between others that work or fail differently.
             String config = source("harbour", "s3://harbour-errors/", "WRONG_SECRET", "")
                     + source("no-bucket", "s3://no-such-harbour/", "GAUGE_SECRET", "")
                     + source("unreachable", "s3://harbour-errors/", "GAUGE_SECRET", "    attempts: 1\n")
                             .replace(server.endpoint().toString(), "http://127.0.0.1:" + closedPort)
+                    + source("harbour-old-key", "s3://harbour-errors/", "WRONG_SECRET", "")
                     + folderSource("local", folder);
             List<SourceRunner.Outcome> outcomes = run(catalog, config);
             Map<String, String> status = new TreeMap<>();
             outcomes.forEach(o -> status.put(o.source(), o.status()));
             assertThat(status).containsExactlyInAnyOrderEntriesOf(Map.of("harbour", "failed", "no-bucket", "failed",
-                    "unreachable", "failed", "local", "ok"));
+                    "unreachable", "failed", "harbour-old-key", "failed", "local", "ok"));
             // expected: S3 error codes (Amazon S3 API Reference, "List of error codes"): a wrong secret gives
             // SignatureDoesNotMatch, a missing bucket NoSuchBucket; a closed port refuses the connection.
             assertThat(message(outcomes, "harbour")).contains("wrong secret key").contains("[SignatureDoesNotMatch]");
@@ -176,10 +177,10 @@ class ObjectStoreHarvestTest {
             assertThat(message(outcomes, "unreachable")).contains("cannot reach the store");
 
             // Nothing of the failed source was ended or changed.
-            List<String> after = datasetNames(catalog, "s3://harbour-errors/");
+            List<String> after = datasetNames(catalog, server.endpoint() + "/harbour-errors/");
             assertThat(after).hasSize(before);
             for (String name : after) {
-                assertThat(dataset(catalog, "s3://harbour-errors/" + name).present()).as(name).isTrue();
+                assertThat(dataset(catalog, server.endpoint() + "/harbour-errors/" + name).present()).as(name).isTrue();
             }
             // The failure is on the source's own harvest record, as the API shows it.
             long failedId = outcomes.get(0).harvestId();
@@ -188,11 +189,12 @@ class ObjectStoreHarvestTest {
             assertThat(harvest.source()).isEqualTo("harbour");
             assertThat(harvest.errorList()).extracting(e -> e.kind()).containsExactly("harvest_failed");
             assertThat(harvest.errorList().get(0).message()).contains("[SignatureDoesNotMatch]");
-            // "unreachable" names the same bucket, so the catalog holds one source for both; its harvest record
-            // still says which entry of the file ran it, so the failure is not read as harbour's.
-            long unreachableId = outcomes.stream().filter(o -> o.source().equals("unreachable")).findFirst()
+            // "harbour-old-key" names the same bucket on the same store, so the catalog holds one source for
+            // both; its harvest record still says which entry of the file ran it, so the failure is not read as
+            // harbour's.
+            long oldKeyId = outcomes.stream().filter(o -> o.source().equals("harbour-old-key")).findFirst()
                     .orElseThrow().harvestId();
-            assertThat(catalog.reader().harvest(unreachableId).orElseThrow().source()).isEqualTo("unreachable");
+            assertThat(catalog.reader().harvest(oldKeyId).orElseThrow().source()).isEqualTo("harbour-old-key");
         }
     }
 

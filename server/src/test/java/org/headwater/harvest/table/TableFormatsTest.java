@@ -80,23 +80,32 @@ class TableFormatsTest {
             var outcome = new SourceRunner(catalog, DatabaseHarvests.NONE, env::get).run(config, null, false,
                     s -> HarvestProgress.NONE).get(0);
             assertThat(outcome.status()).isEqualTo("ok");
-            assertThat(datasetNames(catalog, "s3://wave-buoys/warehouse/"))
+            assertThat(datasetNames(catalog, server.endpoint() + "/wave-buoys/warehouse/"))
                     .containsExactly("buoy_readings/", "harbour_tides/", "quay_list.csv");
-            checkDelta(dataset(catalog, "s3://wave-buoys/warehouse/harbour_tides/"));
-            checkIceberg(dataset(catalog, "s3://wave-buoys/warehouse/buoy_readings/"));
+            checkDelta(dataset(catalog, server.endpoint() + "/wave-buoys/warehouse/harbour_tides/"));
+            checkIceberg(dataset(catalog, server.endpoint() + "/wave-buoys/warehouse/buoy_readings/"));
         }
     }
 
     @Test
-    void aDeltaLogWhoseSchemaIsOnlyInACheckpointIsReportedNotGuessed() throws Exception {
+    void aDeltaLogWithoutItsEarlyCommitsAndWithoutACheckpointIsReportedNotGuessed() throws Exception {
         // PROTOCOL.md "Checkpoints": commits before a checkpoint may be removed; here only version 5 remains.
+        List<TableFile> files = List.of(new TableFile("_delta_log/00000000000000000005.json", 10, Instant.EPOCH,
+                () -> "{\"commitInfo\":{\"timestamp\":1767225600000,\"operation\":\"WRITE\"}}\n".getBytes()));
+        assertThat(org.assertj.core.api.Assertions.catchThrowable(() -> DeltaLog.read(files)))
+                .isInstanceOf(UnreadableTableException.class)
+                .hasMessage("The log starts at version 5 and no checkpoint holds the table's state before it");
+    }
+
+    @Test
+    void aDamagedCheckpointIsReportedNotGuessed() throws Exception {
         List<TableFile> files = List.of(
                 new TableFile("_delta_log/00000000000000000004.checkpoint.parquet", 10, Instant.EPOCH, () -> new byte[10]),
                 new TableFile("_delta_log/00000000000000000005.json", 10, Instant.EPOCH,
                         () -> "{\"commitInfo\":{\"timestamp\":1767225600000,\"operation\":\"WRITE\"}}\n".getBytes()));
         assertThat(org.assertj.core.api.Assertions.catchThrowable(() -> DeltaLog.read(files)))
                 .isInstanceOf(UnreadableTableException.class)
-                .hasMessage("The table's schema is only in a checkpoint (log starts at version 5); Parquet checkpoints are not read");
+                .hasMessage("The checkpoint is not a Parquet file (no PAR1 magic at both ends)");
     }
 
     private static void checkDelta(DatasetView table) throws Exception {
