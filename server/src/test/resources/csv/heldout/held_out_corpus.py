@@ -265,9 +265,10 @@ def hand_files(rng, start):
             if d == ";":
                 fee_text, share = fee_text.replace(".", ","), share.replace(".", ",")
             rows.append([rng.choice(KEEPERS), fee_text, share])
-        # Amounts and shares are numbers with a sign of their unit: decimal (our judgment).
+        # A number with its unit's sign ("$12.50", "12,5%") is text, as R's type.convert and Python's float()
+        # read it (R documentation of type.convert; Python's float() refuses "12%"; from memory).
         add("currency and percent", "csv", [d.join(names)] + [join(r, d) for r in rows],
-            facts(d, names, ["text", "decimal", "decimal"], len(rows), quote='"' if d == "," else None,
+            facts(d, names, ["text", "text", "text"], len(rows), quote='"' if d == "," else None,
                   decimal_separator="," if d == ";" else "."))
     for _ in range(3):
         d = rng.choice([",", ";"])
@@ -305,7 +306,7 @@ def hand_files(rng, start):
                  "%d €" % rng.randint(1, 900)] for _ in range(rng.randint(15, 70))]
         # The euro sign is 0x80 in Windows-1252 and not in ISO-8859-1: only windows-1252 is right here.
         add("windows-1252 euro", "csv", [d.join(names)] + [d.join(r) for r in rows],
-            facts(d, names, ["text", "text", "decimal"], len(rows), encoding="windows-1252", encoding_exact=True),
+            facts(d, names, ["text", "text", "text"], len(rows), encoding="windows-1252", encoding_exact=True),
             terminator="\r\n", encoding="cp1252")
     for _ in range(3):
         d = rng.choice([",", ";", "\t", " "])

@@ -118,6 +118,54 @@ final class HeaderDetector {
     return values >= REPEATED_LABELS_MIN && distinct.size() * 2 <= values ? 1 : 0;
   }
 
+  /**
+   * Whether the record under a header gives units ("m", "degC", "mg/l") rather than data: at
+   * least two of its cells stand above columns of numbers or dates without being one, none of
+   * them fits its column, and every filled cell is short (at most 16 characters) and of no
+   * known type. One odd cell is an odd value, not a units row (our rule).
+   */
+  static boolean isUnitsRow(CsvRecord candidate, List<CsvRecord> following, int width,
+      NumberConvention convention) {
+    if (candidate.width() != width) {
+      return false;
+    }
+    List<CsvRecord> body = new ArrayList<>();
+    for (CsvRecord row : following) {
+      if (row.width() == width) {
+        body.add(row);
+        if (body.size() == BODY_ROWS) {
+          break;
+        }
+      }
+    }
+    if (body.size() < 3) {
+      return false;
+    }
+    int unitCells = 0;
+    for (int column = 0; column < width; column++) {
+      String cell = Cells.trim(candidate.cells().get(column));
+      if (cell.isEmpty()) {
+        continue;
+      }
+      if (cell.length() > 16 || KnownTypes.isKnown(cell)) {
+        return false;
+      }
+      ColumnTypeInference inference = new ColumnTypeInference(convention);
+      for (CsvRecord row : body) {
+        inference.add(row.cells().get(column));
+      }
+      LogicalType type = inference.type();
+      if (type == LogicalType.TEXT || type == LogicalType.BOOLEAN) {
+        continue;
+      }
+      if (ColumnTypeInference.fits(cell, type, convention)) {
+        return false;
+      }
+      unitCells++;
+    }
+    return unitCells >= 2;
+  }
+
   /** A lone record is a header when all its cells are distinct, non-empty and not values. */
   static boolean looksLikeNames(CsvRecord record) {
     Set<String> seen = new HashSet<>();
