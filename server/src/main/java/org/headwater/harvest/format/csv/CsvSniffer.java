@@ -81,6 +81,15 @@ public final class CsvSniffer {
       boolean sampleAtEnd = decodedAll && sampleEnd == text.length();
       DialectScore best = DialectDetector.detect(text, leading.offset(), sampleEnd, sampleAtEnd,
           limits.scoringRows(), leading.forcedDelimiter());
+      if (!best.parsed().records().isEmpty() && (LayoutDetector.modalWidth(best.parsed().records()) == 1
+          || !steady(best.parsed().records()))) {
+        // One column of values (that may hold spaces): no candidate splits it steadily, and
+        // a delimiter that splits only some lines is none (our rule).
+        DialectScore single = oneColumn(text, leading.offset(), sampleEnd, sampleAtEnd);
+        if (single != null) {
+          best = single;
+        }
+      }
       Dialect dialect = best.dialect();
       List<CsvRecord> scored = best.parsed().records();
       if (scored.isEmpty()) {
@@ -115,6 +124,46 @@ public final class CsvSniffer {
           layout.header(), layout.skipLines(), data.footer(), numbers.convention().decimal(),
           numbers.thousandsSeparator(), columns, data.rowCount(), complete,
           data.profiled().size(), warnings);
+    }
+
+    /**
+     * The sample read as one column: under the first of , ; tab | that never occurs in it,
+     * with the double quote; null when every one occurs, when quotes are unbalanced, or when
+     * a line is too long to be a value (prose).
+     */
+    private DialectScore oneColumn(String text, int from, int to, boolean atEnd) {
+      for (char delimiter : new char[] {',', ';', '\t', '|'}) {
+        if (text.indexOf(delimiter, from) < 0 || text.indexOf(delimiter, from) >= to) {
+          DialectScore score = DialectScorer.score(text, from, to, atEnd, limits.scoringRows(),
+              new Dialect(delimiter, '"', Escape.DOUBLE), 0.0);
+          boolean clean = score.parsed() != null && score.parsed().irregularities() == 0
+              && !score.parsed().records().isEmpty()
+              && score.parsed().records().stream().allMatch(r -> r.width() == 1
+                  && shortValue(r.cells().get(0)));
+          return clean ? score : null;
+        }
+      }
+      return null;
+    }
+
+    /**
+     * A value of a one-column table, not a line of prose: at most 48 characters and four
+     * spaces (our thresholds: names, codes, numbers and dates fit; sentences do not).
+     */
+    private static boolean shortValue(String cell) {
+      return cell.length() <= 48 && cell.chars().filter(c -> c == ' ').count() <= 4;
+    }
+
+    /** Whether the records have the steady width {@link #steadyWidth} asks for. */
+    private boolean steady(List<CsvRecord> records) {
+      int width = LayoutDetector.modalWidth(records);
+      int first = 0;
+      while (records.get(first).width() != width) {
+        first++;
+      }
+      return !(records.size() >= 5 && width > 1
+          && LayoutDetector.shareOfWidth(records, width) < 0.5
+          && LayoutDetector.shareOfWidth(records.subList(first, records.size()), width) < 0.8);
     }
 
     /** The modal record width, refusing text whose records have no steady width. */

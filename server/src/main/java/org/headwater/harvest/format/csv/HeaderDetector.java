@@ -121,8 +121,8 @@ final class HeaderDetector {
   /**
    * Whether the record under a header gives units ("m", "degC", "mg/l") rather than data: at
    * least two of its cells stand above columns of numbers or dates without being one, none of
-   * them fits its column, and every filled cell is short (at most 16 characters) and of no
-   * known type. One odd cell is an odd value, not a units row (our rule).
+   * them fits its column, and every filled cell is short (at most 16 characters) and no number
+   * or date ("n" may pass for a boolean). One odd cell is an odd value, not a units row (our rule).
    */
   static boolean isUnitsRow(CsvRecord candidate, List<CsvRecord> following, int width,
       NumberConvention convention) {
@@ -147,7 +147,10 @@ final class HeaderDetector {
       if (cell.isEmpty()) {
         continue;
       }
-      if (cell.length() > 16 || KnownTypes.isKnown(cell)) {
+      ColumnTypeInference own = new ColumnTypeInference(convention);
+      own.add(cell);
+      if (cell.length() > 16
+          || own.type() != LogicalType.TEXT && own.type() != LogicalType.BOOLEAN) {
         return false;
       }
       ColumnTypeInference inference = new ColumnTypeInference(convention);
