@@ -118,7 +118,14 @@ public final class CsvSniffer {
       if (terminators.mixed()) {
         warnings.add("mixed line terminators: " + terminators);
       }
-      List<ColumnProfile> columns = ColumnProfiler.profile(layout.names(), data.profiled(),
+      List<String> names = layout.names();
+      if (trailingDelimiter(scored, width)) {
+        // "a,b,c," on every line, the header's included: the empty last cell is a habit of
+        // the writer, not a column (our rule).
+        warnings.add("every line ends with the delimiter: the empty last column is left out");
+        names = names.subList(0, width - 1);
+      }
+      List<ColumnProfile> columns = ColumnProfiler.profile(names, data.profiled(),
           numbers.convention(), warnings);
       return new CsvSniff(charset, encoding.bom(), dialect, terminators.dominant(),
           layout.header(), layout.skipLines(), data.footer(), numbers.convention().decimal(),
@@ -152,6 +159,23 @@ public final class CsvSniffer {
      */
     private static boolean shortValue(String cell) {
       return cell.length() <= 48 && cell.chars().filter(c -> c == ' ').count() <= 4;
+    }
+
+    /** Whether every record of the table's width (two at least) has an empty last cell. */
+    private static boolean trailingDelimiter(List<CsvRecord> records, int width) {
+      if (width < 2) {
+        return false;
+      }
+      int full = 0;
+      for (CsvRecord record : records) {
+        if (record.width() == width) {
+          if (!Cells.trim(record.cells().get(width - 1)).isEmpty()) {
+            return false;
+          }
+          full++;
+        }
+      }
+      return full >= 2;
     }
 
     /** Whether the records have the steady width {@link #steadyWidth} asks for. */

@@ -16,7 +16,8 @@ import java.util.Set;
  * make a header; data votes alone make data. Both at once is what a line of file-level facts
  * looks like, such as "150,4,setosa,versicolor,virginica" above the iris measurements: more
  * header than data votes make it {@link RowRole#METADATA}, to be skipped; a tie is read as a
- * header with numeric names ("id,2020"), fewer as a data row with an odd value (our rules).
+ * header with numeric names ("id,2020") when those data-like cells are whole numbers, fewer
+ * header votes (or a tie with a date or fraction) as a data row with an odd value (our rules).
  */
 final class HeaderDetector {
 
@@ -44,6 +45,7 @@ final class HeaderDetector {
     }
     int headerVotes = 0;
     int dataVotes = 0;
+    int valueVotes = 0;
     for (int column = 0; column < Math.min(first.width(), width); column++) {
       String cell = Cells.trim(first.cells().get(column));
       if (MissingValues.isMissing(cell)) {
@@ -57,6 +59,10 @@ final class HeaderDetector {
       if (type != LogicalType.TEXT) {
         if (ColumnTypeInference.fits(cell, type, convention)) {
           dataVotes++;
+          LogicalType own = ColumnTypeInference.typeOf(cell, convention);
+          if (own != LogicalType.INTEGER) {
+            valueVotes++;
+          }
         } else {
           headerVotes++;
         }
@@ -82,7 +88,9 @@ final class HeaderDetector {
     if (headerVotes > dataVotes) {
       return RowRole.METADATA;
     }
-    return headerVotes == dataVotes ? RowRole.HEADER : RowRole.DATA;
+    // A tie is a header with numeric names ("id,2020") only when the cells that look like
+    // data are whole numbers: a date, a time or a fraction is no column name.
+    return headerVotes == dataVotes && valueVotes == 0 ? RowRole.HEADER : RowRole.DATA;
   }
 
   /**
