@@ -82,9 +82,10 @@ public final class CsvSniffer {
       DialectScore best = DialectDetector.detect(text, leading.offset(), sampleEnd, sampleAtEnd,
           limits.scoringRows(), leading.forcedDelimiter());
       if (!best.parsed().records().isEmpty() && (LayoutDetector.modalWidth(best.parsed().records()) == 1
-          || !steady(best.parsed().records()))) {
-        // One column of values (that may hold spaces): no candidate splits it steadily, and
-        // a delimiter that splits only some lines is none (our rule).
+          || !steady(best.parsed().records()) || wordsAtSpaces(best))) {
+        // One column of values (that may hold spaces): no candidate splits it steadily, a
+        // delimiter that splits only some lines is none, and spaces that split only words
+        // (few numbers or dates, no quoted cell) are the spaces inside labels (our rules).
         DialectScore single = oneColumn(text, leading.offset(), sampleEnd, sampleAtEnd);
         if (single != null) {
           best = single;
@@ -176,6 +177,12 @@ public final class CsvSniffer {
         }
       }
       return full >= 2;
+    }
+
+    /** A space "delimiter" with few typed cells (under a fifth; our threshold) and no quoted cell. */
+    private static boolean wordsAtSpaces(DialectScore score) {
+      return score.dialect().delimiter() == ' ' && score.type() < 0.2
+          && score.parsed().quotedFields() == 0;
     }
 
     /** Whether the records have the steady width {@link #steadyWidth} asks for. */
