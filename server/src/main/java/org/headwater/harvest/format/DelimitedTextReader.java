@@ -47,13 +47,20 @@ public final class DelimitedTextReader implements FormatReader {
     /**
      * Whether a file not named as a table really is one. Prose with commas also splits into "columns", so
      * the bar is higher than for a {@code .csv}: several columns, no footer, and either a header or at least
-     * one column that is not text. Preamble lines are allowed (exported tables often carry a title); a
-     * header-less table of text only is left as text, since prose looks the same. (our rule)
+     * one column that is not text, or a delimiter that prose does not use. Preamble lines are allowed
+     * (exported tables often carry a title); a header-less table of text only split at commas or spaces is
+     * left as text, since prose looks the same; split at tabs, bars, carets or tildes into a steady width
+     * (the sniffer refuses an unsteady one) it is a table. (our rule)
      */
     static boolean looksLikeTable(CsvSniff sniff) {
         boolean typed = sniff.columns().stream().anyMatch(c -> c.type() != LogicalType.TEXT);
-        return sniff.columns().size() > 1 && sniff.footerLines() == 0 && (sniff.header() || typed);
+        boolean tableDelimiter = PROSE_FREE_DELIMITERS.indexOf(sniff.dialect().delimiter()) >= 0;
+        return sniff.columns().size() > 1 && sniff.footerLines() == 0
+                && (sniff.header() || typed || tableDelimiter && sniff.rowCount() > 1);
     }
+
+    /** Delimiters that running text hardly ever holds (common practice, no source). */
+    private static final String PROSE_FREE_DELIMITERS = "\t|^~";
 
     @Override
     public Reading read(Sample sample) throws UnreadableFileException {

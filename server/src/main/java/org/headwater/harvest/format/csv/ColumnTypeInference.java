@@ -81,6 +81,13 @@ final class ColumnTypeInference {
     return temporalPattern;
   }
 
+  /** The type of a single value on its own (TEXT when missing). */
+  static LogicalType typeOf(String value, NumberConvention convention) {
+    ColumnTypeInference one = new ColumnTypeInference(convention);
+    one.add(value);
+    return one.type();
+  }
+
   /** Whether a single trimmed value fits {@code type} under this column's convention. */
   static boolean fits(String value, LogicalType type, NumberConvention convention) {
     ColumnTypeInference one = new ColumnTypeInference(convention);

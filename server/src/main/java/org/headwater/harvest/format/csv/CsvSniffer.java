@@ -81,6 +81,16 @@ public final class CsvSniffer {
       boolean sampleAtEnd = decodedAll && sampleEnd == text.length();
       DialectScore best = DialectDetector.detect(text, leading.offset(), sampleEnd, sampleAtEnd,
           limits.scoringRows(), leading.forcedDelimiter());
+      if (!best.parsed().records().isEmpty() && (LayoutDetector.modalWidth(best.parsed().records()) == 1
+          || !steady(best.parsed().records()) || wordsAtSpaces(best))) {
+        // One column of values (that may hold spaces): no candidate splits it steadily, a
+        // delimiter that splits only some lines is none, and spaces that split only words
+        // (few numbers or dates, no quoted cell) are the spaces inside labels (our rules).
+        DialectScore single = oneColumn(text, leading.offset(), sampleEnd, sampleAtEnd);
+        if (single != null) {
+          best = single;
+        }
+      }
       Dialect dialect = best.dialect();
       List<CsvRecord> scored = best.parsed().records();
       if (scored.isEmpty()) {
@@ -109,12 +119,82 @@ public final class CsvSniffer {
       if (terminators.mixed()) {
         warnings.add("mixed line terminators: " + terminators);
       }
-      List<ColumnProfile> columns = ColumnProfiler.profile(layout.names(), data.profiled(),
+      List<String> names = layout.names();
+      if (trailingDelimiter(scored, width)) {
+        // "a,b,c," on every line, the header's included: the empty last cell is a habit of
+        // the writer, not a column (our rule).
+        warnings.add("every line ends with the delimiter: the empty last column is left out");
+        names = names.subList(0, width - 1);
+      }
+      List<ColumnProfile> columns = ColumnProfiler.profile(names, data.profiled(),
           numbers.convention(), warnings);
       return new CsvSniff(charset, encoding.bom(), dialect, terminators.dominant(),
           layout.header(), layout.skipLines(), data.footer(), numbers.convention().decimal(),
           numbers.thousandsSeparator(), columns, data.rowCount(), complete,
           data.profiled().size(), warnings);
+    }
+
+    /**
+     * The sample read as one column: under the first of , ; tab | that never occurs in it,
+     * with the double quote; null when every one occurs, when quotes are unbalanced, or when
+     * a line is too long to be a value (prose).
+     */
+    private DialectScore oneColumn(String text, int from, int to, boolean atEnd) {
+      for (char delimiter : new char[] {',', ';', '\t', '|'}) {
+        if (text.indexOf(delimiter, from) < 0 || text.indexOf(delimiter, from) >= to) {
+          DialectScore score = DialectScorer.score(text, from, to, atEnd, limits.scoringRows(),
+              new Dialect(delimiter, '"', Escape.DOUBLE), 0.0);
+          boolean clean = score.parsed() != null && score.parsed().irregularities() == 0
+              && !score.parsed().records().isEmpty()
+              && score.parsed().records().stream().allMatch(r -> r.width() == 1
+                  && shortValue(r.cells().get(0)));
+          return clean ? score : null;
+        }
+      }
+      return null;
+    }
+
+    /**
+     * A value of a one-column table, not a line of prose: at most 48 characters and four
+     * spaces (our thresholds: names, codes, numbers and dates fit; sentences do not).
+     */
+    private static boolean shortValue(String cell) {
+      return cell.length() <= 48 && cell.chars().filter(c -> c == ' ').count() <= 4;
+    }
+
+    /** Whether every record of the table's width (two at least) has an empty last cell. */
+    private static boolean trailingDelimiter(List<CsvRecord> records, int width) {
+      if (width < 2) {
+        return false;
+      }
+      int full = 0;
+      for (CsvRecord record : records) {
+        if (record.width() == width) {
+          if (!Cells.trim(record.cells().get(width - 1)).isEmpty()) {
+            return false;
+          }
+          full++;
+        }
+      }
+      return full >= 2;
+    }
+
+    /** A space "delimiter" with few typed cells (under a fifth; our threshold) and no quoted cell. */
+    private static boolean wordsAtSpaces(DialectScore score) {
+      return score.dialect().delimiter() == ' ' && score.type() < 0.2
+          && score.parsed().quotedFields() == 0;
+    }
+
+    /** Whether the records have the steady width {@link #steadyWidth} asks for. */
+    private boolean steady(List<CsvRecord> records) {
+      int width = LayoutDetector.modalWidth(records);
+      int first = 0;
+      while (records.get(first).width() != width) {
+        first++;
+      }
+      return !(records.size() >= 5 && width > 1
+          && LayoutDetector.shareOfWidth(records, width) < 0.5
+          && LayoutDetector.shareOfWidth(records.subList(first, records.size()), width) < 0.8);
     }
 
     /** The modal record width, refusing text whose records have no steady width. */

@@ -16,7 +16,8 @@ import java.util.Set;
  * make a header; data votes alone make data. Both at once is what a line of file-level facts
  * looks like, such as "150,4,setosa,versicolor,virginica" above the iris measurements: more
  * header than data votes make it {@link RowRole#METADATA}, to be skipped; a tie is read as a
- * header with numeric names ("id,2020"), fewer as a data row with an odd value (our rules).
+ * header with numeric names ("id,2020") when those data-like cells are whole numbers, fewer
+ * header votes (or a tie with a date or fraction) as a data row with an odd value (our rules).
  */
 final class HeaderDetector {
 
@@ -44,6 +45,7 @@ final class HeaderDetector {
     }
     int headerVotes = 0;
     int dataVotes = 0;
+    int valueVotes = 0;
     for (int column = 0; column < Math.min(first.width(), width); column++) {
       String cell = Cells.trim(first.cells().get(column));
       if (MissingValues.isMissing(cell)) {
@@ -57,6 +59,10 @@ final class HeaderDetector {
       if (type != LogicalType.TEXT) {
         if (ColumnTypeInference.fits(cell, type, convention)) {
           dataVotes++;
+          LogicalType own = ColumnTypeInference.typeOf(cell, convention);
+          if (own != LogicalType.INTEGER) {
+            valueVotes++;
+          }
         } else {
           headerVotes++;
         }
@@ -82,7 +88,9 @@ final class HeaderDetector {
     if (headerVotes > dataVotes) {
       return RowRole.METADATA;
     }
-    return headerVotes == dataVotes ? RowRole.HEADER : RowRole.DATA;
+    // A tie is a header with numeric names ("id,2020") only when the cells that look like
+    // data are whole numbers: a date, a time or a fraction is no column name.
+    return headerVotes == dataVotes && valueVotes == 0 ? RowRole.HEADER : RowRole.DATA;
   }
 
   /**
@@ -116,6 +124,57 @@ final class HeaderDetector {
       return 1;
     }
     return values >= REPEATED_LABELS_MIN && distinct.size() * 2 <= values ? 1 : 0;
+  }
+
+  /**
+   * Whether the record under a header gives units ("m", "degC", "mg/l") rather than data: at
+   * least two of its cells stand above columns of numbers or dates without being one, none of
+   * them fits its column, and every filled cell is short (at most 16 characters) and no number
+   * or date ("n" may pass for a boolean). One odd cell is an odd value, not a units row (our rule).
+   */
+  static boolean isUnitsRow(CsvRecord candidate, List<CsvRecord> following, int width,
+      NumberConvention convention) {
+    if (candidate.width() != width) {
+      return false;
+    }
+    List<CsvRecord> body = new ArrayList<>();
+    for (CsvRecord row : following) {
+      if (row.width() == width) {
+        body.add(row);
+        if (body.size() == BODY_ROWS) {
+          break;
+        }
+      }
+    }
+    if (body.size() < 3) {
+      return false;
+    }
+    int unitCells = 0;
+    for (int column = 0; column < width; column++) {
+      String cell = Cells.trim(candidate.cells().get(column));
+      if (cell.isEmpty()) {
+        continue;
+      }
+      ColumnTypeInference own = new ColumnTypeInference(convention);
+      own.add(cell);
+      if (cell.length() > 16
+          || own.type() != LogicalType.TEXT && own.type() != LogicalType.BOOLEAN) {
+        return false;
+      }
+      ColumnTypeInference inference = new ColumnTypeInference(convention);
+      for (CsvRecord row : body) {
+        inference.add(row.cells().get(column));
+      }
+      LogicalType type = inference.type();
+      if (type == LogicalType.TEXT || type == LogicalType.BOOLEAN) {
+        continue;
+      }
+      if (ColumnTypeInference.fits(cell, type, convention)) {
+        return false;
+      }
+      unitCells++;
+    }
+    return unitCells >= 2;
   }
 
   /** A lone record is a header when all its cells are distinct, non-empty and not values. */

@@ -1,14 +1,17 @@
 package org.headwater.harvest.format.csv;
 
+import java.util.Locale;
 import java.util.Set;
 
 /**
  * Decides which cells stand for a missing value.
  *
- * <p>Tokens: the empty cell (after trimming spaces) and NA, N/A, n/a, NULL, null, Null, NaN,
- * nan, #N/A and "-": the placeholders that spreadsheets, R and pandas write (common practice,
- * no source). They count as missing in every column, text columns included; a column of
- * country codes that holds Namibia's "NA" will be mis-counted, which we accept.
+ * <p>Tokens: the empty cell (after trimming spaces), NA, N/A, NULL, NaN and #N/A in any mix of
+ * case (na, n/a, Null, nan), "-" and ".": the placeholders that spreadsheets, R, pandas and
+ * statistics packages write by hand or by default (SAS and Stata print a lone "." for a
+ * missing number; common practice, no source). They count as missing in every column, text
+ * columns included; a column of country codes that holds Namibia's "NA", or of element
+ * symbols holding sodium's "Na", will be mis-counted, which we accept.
  *
  * <p>Numeric sentinels (-999, -9999) are not tokens: -999 is an ordinary number in many
  * columns. {@link ColumnProfiler} treats them as missing only in a column whose other values
@@ -17,7 +20,7 @@ import java.util.Set;
 final class MissingValues {
 
   private static final Set<String> TOKENS =
-      Set.of("NA", "N/A", "n/a", "NULL", "null", "Null", "NaN", "nan", "#N/A", "-");
+      Set.of("NA", "N/A", "NULL", "NAN", "#N/A", "-", ".");
 
   private MissingValues() {}
 
@@ -30,18 +33,19 @@ final class MissingValues {
     if (length > 4 || !mayStartToken(s.charAt(from))) {
       return false;
     }
-    return TOKENS.contains(s.subSequence(from, to).toString());
+    return TOKENS.contains(s.subSequence(from, to).toString().toUpperCase(Locale.ROOT));
   }
 
   /** Whether a trimmed cell is missing. */
   static boolean isMissing(String trimmed) {
     return trimmed.isEmpty()
-        || trimmed.length() <= 4 && mayStartToken(trimmed.charAt(0)) && TOKENS.contains(trimmed);
+        || trimmed.length() <= 4 && mayStartToken(trimmed.charAt(0))
+        && TOKENS.contains(trimmed.toUpperCase(Locale.ROOT));
   }
 
-  /** Every token starts with N, n, # or -: a cheap test before the set look-up. */
+  /** Every token starts with N, n, #, - or '.': a cheap test before the set look-up. */
   private static boolean mayStartToken(char c) {
-    return c == 'N' || c == 'n' || c == '#' || c == '-';
+    return c == 'N' || c == 'n' || c == '#' || c == '-' || c == '.';
   }
 
   /** Whether a normalized number is one of the sentinels -999 or -9999 (any zero fraction). */
