@@ -94,10 +94,15 @@ final class LuceneQueries {
     }
 
     /** The filters of the text as one query to use as a filter, or null when there are none. */
-    Query filters(QueryText text, String kind) {
+    Query filters(QueryText text, String kind, FreshnessProvider freshness) {
         BooleanQuery.Builder all = new BooleanQuery.Builder();
         boolean any = false;
         for (Map.Entry<String, List<String>> f : text.filters().entrySet()) {
+            if (f.getKey().equals("fresh")) {
+                all.add(new FreshnessFilter(java.util.Set.copyOf(f.getValue()), freshness), Occur.FILTER);
+                any = true;
+                continue;
+            }
             BooleanQuery.Builder oneOf = new BooleanQuery.Builder();
             for (String value : f.getValue()) {
                 String field = f.getKey().equals("kind") ? Documents.KIND : "f_" + f.getKey();

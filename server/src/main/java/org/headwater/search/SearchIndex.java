@@ -285,7 +285,7 @@ public final class SearchIndex implements ChangeListener, AutoCloseable {
     public SearchResult search(SearchRequest request) {
         QueryText text = QueryText.parse(request.text());
         Ranks current = currentRanks();
-        Query filter = QUERIES.filters(text, request.kind());
+        Query filter = QUERIES.filters(text, request.kind(), freshness);
         try {
             IndexSearcher searcher = searchers.acquire();
             try {
