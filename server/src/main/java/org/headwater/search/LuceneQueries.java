@@ -5,6 +5,7 @@ import java.io.StringReader;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Map;
+import java.util.function.Predicate;
 import org.apache.lucene.analysis.Analyzer;
 import org.apache.lucene.analysis.TokenStream;
 import org.apache.lucene.analysis.en.EnglishAnalyzer;
@@ -51,8 +52,18 @@ final class LuceneQueries {
                 Documents.exactForm(text.plainText())))), EXACT_NAME_BOOST);
     }
 
-    /** The text part of the query (words and phrases, no filters, no ranking), or null for a text of filters only. */
+    /** The text part of the query with prefix and typo clauses for every word; see {@link #text(QueryText, Mode, Predicate)}. */
     Query text(QueryText text, Mode mode) {
+        return text(text, mode, part -> false);
+    }
+
+    /**
+     * The text part of the query (words and phrases, no filters, no ranking), or null for a text of filters only.
+     * A word the catalog holds ({@code known}) is matched as itself, by its stem and as a beginning; only an
+     * unknown one, a half-typed word or a typo, also gets the typo clauses, which cost an automaton per field
+     * and segment and widen every disjunction the search then scores.
+     */
+    Query text(QueryText text, Mode mode, Predicate<String> known) {
         if (!text.hasText()) {
             return null;
         }
@@ -60,7 +71,7 @@ final class LuceneQueries {
         List<String> parts = wordParts(text.words());
         if (mode == Mode.ALL_WORDS) {
             for (String part : parts) {
-                query.add(wordClause(part), Occur.MUST);
+                query.add(wordClause(part, known.test(part)), Occur.MUST);
             }
         } else {
             // Any typed word will do, but the parts of one identifier (merge_lab_results) still go together.
@@ -70,7 +81,7 @@ final class LuceneQueries {
                     continue;
                 }
                 BooleanQuery.Builder together = new BooleanQuery.Builder();
-                own.forEach(part -> together.add(wordClause(part), Occur.MUST));
+                own.forEach(part -> together.add(wordClause(part, known.test(part)), Occur.MUST));
                 query.add(together.build(), Occur.SHOULD);
             }
         }
@@ -142,7 +153,7 @@ final class LuceneQueries {
         return content.isEmpty() ? parts : content;
     }
 
-    private Query wordClause(String part) {
+    private Query wordClause(String part, boolean known) {
         List<Query> alternatives = new ArrayList<>();
         for (Map.Entry<String, Float> f : Documents.IDENTIFIER_FIELDS.entrySet()) {
             alternatives.add(new BoostQuery(new TermQuery(new Term(f.getKey(), part)), f.getValue()));
@@ -153,8 +164,16 @@ final class LuceneQueries {
                 alternatives.add(new BoostQuery(new TermQuery(new Term(f.getKey(), stems.get(0))), f.getValue()));
             }
         }
-        int edits = editsFor(part);
+        if (known && !stems.isEmpty() && !stems.get(0).equals(part)) {
+            // What the typo clauses used to catch for a known word: its other inflection in names and the
+            // identifiers of prose ("results" finds lab_result), as plain terms, without an automaton.
+            for (Map.Entry<String, Float> f : FUZZY_FIELDS.entrySet()) {
+                alternatives.add(new BoostQuery(new TermQuery(new Term(f.getKey(), stems.get(0))), f.getValue() * FUZZY_SHARE));
+            }
+        }
+        int edits = known ? 0 : editsFor(part);
         if (part.length() >= 3 && !isNumber(part)) {
+            // Kept for known words too: they also find the longer words they begin (merge finds merged).
             for (Map.Entry<String, Float> f : PREFIX_FIELDS.entrySet()) {
                 alternatives.add(new BoostQuery(new PrefixQuery(new Term(f.getKey(), part)), f.getValue() * PREFIX_SHARE));
             }
