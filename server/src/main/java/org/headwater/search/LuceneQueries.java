@@ -33,6 +33,8 @@ final class LuceneQueries {
     /** Fields searched for prefixes: the ones whose words people half-type. */
     private static final Map<String, Float> PREFIX_FIELDS = Map.of("name", 4.0f, "columns", 1.5f, "prose_ids", 1.0f,
             "tags", 1.5f);
+    /** Fields searched for the prefix of a word the catalog holds. */
+    private static final Map<String, Float> KNOWN_PREFIX_FIELDS = Map.of("prose_ids", 1.0f, "tags", 1.5f);
     /** Fields searched for typos; few, because each costs an automaton per query. */
     private static final Map<String, Float> FUZZY_FIELDS = Map.of("name", 4.0f, "columns", 1.5f, "prose_ids", 1.0f);
     private static final float PREFIX_SHARE = 0.25f;
@@ -173,8 +175,10 @@ final class LuceneQueries {
         }
         int edits = known ? 0 : editsFor(part);
         if (part.length() >= 3 && !isNumber(part)) {
-            // Kept for known words too: they also find the longer words they begin (merge finds merged).
-            for (Map.Entry<String, Float> f : PREFIX_FIELDS.entrySet()) {
+            // A known word's longer forms in names and columns are found by its stem (the stemmed name field) or
+            // are identifiers that also hold the word itself as a part; in the unstemmed words of prose they are
+            // not (merge finds merged), so there the prefix stays.
+            for (Map.Entry<String, Float> f : (known ? KNOWN_PREFIX_FIELDS : PREFIX_FIELDS).entrySet()) {
                 alternatives.add(new BoostQuery(new PrefixQuery(new Term(f.getKey(), part)), f.getValue() * PREFIX_SHARE));
             }
         }

@@ -86,7 +86,10 @@ public final class SearchIndex implements ChangeListener, AutoCloseable {
         this.source = new SearchSource(catalog);
         IndexWriterConfig config = new IndexWriterConfig(Documents.indexAnalyzer())
                 .setOpenMode(IndexWriterConfig.OpenMode.CREATE_OR_APPEND)
-                .setRAMBufferSizeMB(BUFFER_MB);
+                .setRAMBufferSizeMB(BUFFER_MB)
+                // Compound files copy every new segment once more; the index is few enough segments without them.
+                .setUseCompoundFile(false);
+        config.getMergePolicy().setNoCFSRatio(0.0);
         this.writer = new IndexWriter(directory, config);
         this.searchers = new SearcherManager(writer, null);
     }
