@@ -19,7 +19,7 @@ import picocli.CommandLine.Spec;
 @Command(name = "search", mixinStandardHelpOptions = true,
         description = {"Find datasets, columns, scripts and owners by words of their names, paths, columns,",
                 "descriptions, docstrings and figure titles. Quote a phrase ('\"monthly summary\"'); narrow with",
-                "field=value filters: kind, format, owner, tag, source (kind=column format=csv).",
+                "field=value filters: kind, format, owner, tag, source, fresh (kind=column format=csv fresh=late).",
                 "With --json, prints the same object as /api/search."})
 final class SearchCommand implements Callable<Integer> {
     @Parameters(arity = "1..*", paramLabel = "TEXT", description = "Words, quoted phrases and field=value filters.")

@@ -1,11 +1,12 @@
 package org.headwater.http;
 
 import io.javalin.http.Context;
+import org.headwater.search.FreshnessProvider;
 import org.headwater.search.QuerySyntaxException;
 import org.headwater.search.SearchRequest;
 
 /**
- * {@code /api/search?q=&kind=&page=&size=&explain=}: words in the query syntax in; one page of ranked hits,
+ * {@code /api/search?q=&kind=&fresh=&page=&size=&explain=}: words in the query syntax in; one page of ranked hits,
  * the total, facet counts and a "did you mean" suggestion out. {@code limit} is kept as another name for size.
  */
 final class SearchRoutes {
@@ -29,6 +30,18 @@ final class SearchRoutes {
         if ((long) page * size > SearchRequest.MAX_DEPTH) {
             throw ApiError.badRequest("Pages reach no deeper than hit " + SearchRequest.MAX_DEPTH + ": page × size is "
                     + (long) page * size);
+        }
+        String fresh = Params.optional(ctx, "fresh");
+        if (fresh != null) {
+            // The same as writing fresh=STATE in q; a comma means either.
+            for (String state : fresh.split(",", -1)) {
+                String word = state.strip().toLowerCase(java.util.Locale.ROOT);
+                if (!FreshnessProvider.STATES.contains(word)) {
+                    throw ApiError.badRequest("Parameter 'fresh' takes freshness states separated by commas: "
+                            + String.join(", ", FreshnessProvider.STATES) + " (not '" + state.strip() + "')");
+                }
+                q = q + " fresh=" + word;
+            }
         }
         String explain = Params.optional(ctx, "explain");
         if (explain != null && !explain.equals("true") && !explain.equals("false")) {

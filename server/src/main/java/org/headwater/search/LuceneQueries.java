@@ -5,6 +5,7 @@ import java.io.StringReader;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Map;
+import java.util.function.Predicate;
 import org.apache.lucene.analysis.Analyzer;
 import org.apache.lucene.analysis.TokenStream;
 import org.apache.lucene.analysis.en.EnglishAnalyzer;
@@ -32,6 +33,8 @@ final class LuceneQueries {
     /** Fields searched for prefixes: the ones whose words people half-type. */
     private static final Map<String, Float> PREFIX_FIELDS = Map.of("name", 4.0f, "columns", 1.5f, "prose_ids", 1.0f,
             "tags", 1.5f);
+    /** Fields searched for the prefix of a word the catalog holds. */
+    private static final Map<String, Float> KNOWN_PREFIX_FIELDS = Map.of("prose_ids", 1.0f, "tags", 1.5f);
     /** Fields searched for typos; few, because each costs an automaton per query. */
     private static final Map<String, Float> FUZZY_FIELDS = Map.of("name", 4.0f, "columns", 1.5f, "prose_ids", 1.0f);
     private static final float PREFIX_SHARE = 0.25f;
@@ -51,8 +54,18 @@ final class LuceneQueries {
                 Documents.exactForm(text.plainText())))), EXACT_NAME_BOOST);
     }
 
-    /** The text part of the query (words and phrases, no filters, no ranking), or null for a text of filters only. */
+    /** The text part of the query with prefix and typo clauses for every word; see {@link #text(QueryText, Mode, Predicate)}. */
     Query text(QueryText text, Mode mode) {
+        return text(text, mode, part -> false);
+    }
+
+    /**
+     * The text part of the query (words and phrases, no filters, no ranking), or null for a text of filters only.
+     * A word the catalog holds ({@code known}) is matched as itself, by its stem and as a beginning; only an
+     * unknown one, a half-typed word or a typo, also gets the typo clauses, which cost an automaton per field
+     * and segment and widen every disjunction the search then scores.
+     */
+    Query text(QueryText text, Mode mode, Predicate<String> known) {
         if (!text.hasText()) {
             return null;
         }
@@ -60,7 +73,7 @@ final class LuceneQueries {
         List<String> parts = wordParts(text.words());
         if (mode == Mode.ALL_WORDS) {
             for (String part : parts) {
-                query.add(wordClause(part), Occur.MUST);
+                query.add(wordClause(part, known.test(part)), Occur.MUST);
             }
         } else {
             // Any typed word will do, but the parts of one identifier (merge_lab_results) still go together.
@@ -70,7 +83,7 @@ final class LuceneQueries {
                     continue;
                 }
                 BooleanQuery.Builder together = new BooleanQuery.Builder();
-                own.forEach(part -> together.add(wordClause(part), Occur.MUST));
+                own.forEach(part -> together.add(wordClause(part, known.test(part)), Occur.MUST));
                 query.add(together.build(), Occur.SHOULD);
             }
         }
@@ -94,10 +107,15 @@ final class LuceneQueries {
     }
 
     /** The filters of the text as one query to use as a filter, or null when there are none. */
-    Query filters(QueryText text, String kind) {
+    Query filters(QueryText text, String kind, FreshnessProvider freshness) {
         BooleanQuery.Builder all = new BooleanQuery.Builder();
         boolean any = false;
         for (Map.Entry<String, List<String>> f : text.filters().entrySet()) {
+            if (f.getKey().equals("fresh")) {
+                all.add(new FreshnessFilter(java.util.Set.copyOf(f.getValue()), freshness), Occur.FILTER);
+                any = true;
+                continue;
+            }
             BooleanQuery.Builder oneOf = new BooleanQuery.Builder();
             for (String value : f.getValue()) {
                 String field = f.getKey().equals("kind") ? Documents.KIND : "f_" + f.getKey();
@@ -137,7 +155,7 @@ final class LuceneQueries {
         return content.isEmpty() ? parts : content;
     }
 
-    private Query wordClause(String part) {
+    private Query wordClause(String part, boolean known) {
         List<Query> alternatives = new ArrayList<>();
         for (Map.Entry<String, Float> f : Documents.IDENTIFIER_FIELDS.entrySet()) {
             alternatives.add(new BoostQuery(new TermQuery(new Term(f.getKey(), part)), f.getValue()));
@@ -148,9 +166,19 @@ final class LuceneQueries {
                 alternatives.add(new BoostQuery(new TermQuery(new Term(f.getKey(), stems.get(0))), f.getValue()));
             }
         }
-        int edits = editsFor(part);
+        if (known && !stems.isEmpty() && !stems.get(0).equals(part)) {
+            // What the typo clauses used to catch for a known word: its other inflection in names and the
+            // identifiers of prose ("results" finds lab_result), as plain terms, without an automaton.
+            for (Map.Entry<String, Float> f : FUZZY_FIELDS.entrySet()) {
+                alternatives.add(new BoostQuery(new TermQuery(new Term(f.getKey(), stems.get(0))), f.getValue() * FUZZY_SHARE));
+            }
+        }
+        int edits = known ? 0 : editsFor(part);
         if (part.length() >= 3 && !isNumber(part)) {
-            for (Map.Entry<String, Float> f : PREFIX_FIELDS.entrySet()) {
+            // A known word's longer forms in names and columns are found by its stem (the stemmed name field) or
+            // are identifiers that also hold the word itself as a part; in the unstemmed words of prose they are
+            // not (merge finds merged), so there the prefix stays.
+            for (Map.Entry<String, Float> f : (known ? KNOWN_PREFIX_FIELDS : PREFIX_FIELDS).entrySet()) {
                 alternatives.add(new BoostQuery(new PrefixQuery(new Term(f.getKey(), part)), f.getValue() * PREFIX_SHARE));
             }
         }

@@ -9,7 +9,8 @@ import java.util.Set;
 
 /**
  * The search text, read in Headwater's own syntax: plain words; {@code "a quoted phrase"}; and filters
- * written {@code field=value} or {@code field="two words"} for kind, format, owner, tag and source. Several
+ * written {@code field=value} or {@code field="two words"} for kind, format, owner, tag, source and fresh (a
+ * freshness state: fresh, due, late, stale or unknown). Several
  * values of one filter mean any of them; different filters must all hold. Words and phrases are what is
  * searched; a text of filters only lists everything that passes them.
  *
@@ -18,7 +19,7 @@ import java.util.Set;
  * @param filters filter field to its values, lower-cased
  */
 record QueryText(List<String> words, List<String> phrases, Map<String, List<String>> filters) {
-    static final Set<String> FILTERS = Set.of("kind", "format", "owner", "tag", "source");
+    static final Set<String> FILTERS = Set.of("kind", "format", "owner", "tag", "source", "fresh");
     private static final int MAX_TERMS = 32;
 
     /** Reads {@code text}; throws {@link QuerySyntaxException} with the position of the first problem. */
@@ -69,7 +70,12 @@ record QueryText(List<String> words, List<String> phrases, Map<String, List<Stri
                         throw new QuerySyntaxException("The filter '" + field + "=' at position " + (start + 1)
                                 + " needs a value, such as " + field + "=csv or " + field + "=\"two words\"");
                     }
-                    filters.computeIfAbsent(field, k -> new ArrayList<>()).add(value.toLowerCase(Locale.ROOT));
+                    value = value.toLowerCase(Locale.ROOT);
+                    if (field.equals("fresh") && !FreshnessProvider.STATES.contains(value)) {
+                        throw new QuerySyntaxException("The filter 'fresh=' at position " + (start + 1) + " takes a freshness"
+                                + " state: " + String.join(", ", FreshnessProvider.STATES) + " (not '" + value + "')");
+                    }
+                    filters.computeIfAbsent(field, k -> new ArrayList<>()).add(value);
                 } else if (!token.isEmpty()) {
                     words.add(token);
                 }

@@ -12,6 +12,7 @@ import java.util.Map;
 import java.util.Set;
 import java.util.TreeMap;
 import java.util.TreeSet;
+import java.util.function.Predicate;
 import org.apache.lucene.document.Document;
 import org.apache.lucene.facet.FacetResult;
 import org.apache.lucene.facet.FacetsCollector;
@@ -65,6 +66,9 @@ public final class SearchIndex implements ChangeListener, AutoCloseable {
     private static final String OF_DATASET = "of_dataset";
     private static final int FACET_VALUES = 50;
     private static final int SNIPPET_LENGTH = 240;
+    private static final double BUFFER_MB = 64;
+    private static final double REBUILD_BUFFER_MB = 256;
+    private static final int INDEXING_THREADS = 2;
 
     private final Directory directory;
     private final IndexWriter writer;
@@ -82,7 +86,10 @@ public final class SearchIndex implements ChangeListener, AutoCloseable {
         this.source = new SearchSource(catalog);
         IndexWriterConfig config = new IndexWriterConfig(Documents.indexAnalyzer())
                 .setOpenMode(IndexWriterConfig.OpenMode.CREATE_OR_APPEND)
-                .setRAMBufferSizeMB(64);
+                .setRAMBufferSizeMB(BUFFER_MB)
+                // Compound files copy every new segment once more; the index is few enough segments without them.
+                .setUseCompoundFile(false);
+        config.getMergePolicy().setNoCFSRatio(0.0);
         this.writer = new IndexWriter(directory, config);
         this.searchers = new SearcherManager(writer, null);
     }
@@ -158,16 +165,27 @@ public final class SearchIndex implements ChangeListener, AutoCloseable {
         try {
             long seq = source.reader().lastChangeSeq();
             writer.deleteAll();
+            // A bigger buffer while rebuilding: fewer, larger segments to flush and merge.
+            writer.getConfig().setRAMBufferSizeMB(REBUILD_BUFFER_MB);
             List<Long> datasets = source.reader().presentDatasetIds();
-            for (int from = 0; from < datasets.size(); from += 1000) {
-                for (DatasetDoc doc : source.datasets(datasets.subList(from, Math.min(datasets.size(), from + 1000)))) {
-                    addDataset(doc);
+            try (Indexers indexers = new Indexers()) {
+                for (int from = 0; from < datasets.size(); from += 1000) {
+                    // The store is read here while the batch before is analysed on the indexing threads.
+                    List<DatasetDoc> batch = source.datasets(datasets.subList(from, Math.min(datasets.size(), from + 1000)));
+                    indexers.submit(() -> {
+                        for (DatasetDoc doc : batch) {
+                            addDataset(doc);
+                        }
+                    });
                 }
-            }
-            List<Long> scripts = source.presentScriptIds();
-            for (int from = 0; from < scripts.size(); from += 1000) {
-                for (ScriptDoc doc : source.scripts(scripts.subList(from, Math.min(scripts.size(), from + 1000)))) {
-                    writer.addDocument(build(Documents.script(doc, ScriptProse.of(doc.entry().uri()))));
+                List<Long> scripts = source.presentScriptIds();
+                for (int from = 0; from < scripts.size(); from += 1000) {
+                    List<ScriptDoc> batch = source.scripts(scripts.subList(from, Math.min(scripts.size(), from + 1000)));
+                    indexers.submit(() -> {
+                        for (ScriptDoc doc : batch) {
+                            writer.addDocument(build(Documents.script(doc, ScriptProse.of(doc.entry().uri()))));
+                        }
+                    });
                 }
             }
             writeOwners();
@@ -175,6 +193,64 @@ public final class SearchIndex implements ChangeListener, AutoCloseable {
             commit(seq);
         } catch (IOException e) {
             throw new SearchException("Rebuilding the search index failed", e);
+        } finally {
+            writer.getConfig().setRAMBufferSizeMB(BUFFER_MB);
+        }
+    }
+
+    /** Work that adds documents; IndexWriter takes documents from several threads at once. */
+    private interface Indexing {
+        void run() throws IOException;
+    }
+
+    /**
+     * A few threads that analyse and add documents while the caller reads the next batch from the store; at
+     * most {@code 2 × threads} batches wait, so memory stays bounded. Closing waits for all and rethrows the
+     * first failure.
+     */
+    private static final class Indexers implements AutoCloseable {
+        private final int threads = Math.max(1, Math.min(INDEXING_THREADS, Runtime.getRuntime().availableProcessors()));
+        private final java.util.concurrent.ExecutorService pool = java.util.concurrent.Executors.newFixedThreadPool(threads, r -> {
+            Thread t = new Thread(r, "search-indexing");
+            t.setDaemon(true);
+            return t;
+        });
+        private final java.util.concurrent.Semaphore waiting = new java.util.concurrent.Semaphore(2 * threads);
+        private final List<java.util.concurrent.Future<?>> running = new ArrayList<>();
+
+        void submit(Indexing work) throws IOException {
+            try {
+                waiting.acquire();
+            } catch (InterruptedException e) {
+                Thread.currentThread().interrupt();
+                throw new java.io.InterruptedIOException("Interrupted while rebuilding the search index");
+            }
+            running.add(pool.submit(() -> {
+                try {
+                    work.run();
+                } catch (IOException e) {
+                    throw new UncheckedIOException(e);
+                } finally {
+                    waiting.release();
+                }
+            }));
+        }
+
+        @Override
+        public void close() throws IOException {
+            try {
+                for (java.util.concurrent.Future<?> f : running) {
+                    f.get();
+                }
+            } catch (InterruptedException e) {
+                Thread.currentThread().interrupt();
+                throw new java.io.InterruptedIOException("Interrupted while rebuilding the search index");
+            } catch (java.util.concurrent.ExecutionException e) {
+                Throwable cause = e.getCause() instanceof UncheckedIOException u ? u.getCause() : e.getCause();
+                throw cause instanceof IOException io ? io : new IOException(cause);
+            } finally {
+                pool.shutdownNow();
+            }
         }
     }
 
@@ -285,11 +361,12 @@ public final class SearchIndex implements ChangeListener, AutoCloseable {
     public SearchResult search(SearchRequest request) {
         QueryText text = QueryText.parse(request.text());
         Ranks current = currentRanks();
-        Query filter = QUERIES.filters(text, request.kind());
+        Query filter = QUERIES.filters(text, request.kind(), freshness);
         try {
             IndexSearcher searcher = searchers.acquire();
             try {
-                Query allWords = QUERIES.text(text, LuceneQueries.Mode.ALL_WORDS);
+                Predicate<String> known = knownWords(searcher.getIndexReader());
+                Query allWords = QUERIES.text(text, LuceneQueries.Mode.ALL_WORDS, known);
                 if (allWords == null && text.hasText()) {
                     return empty(request, searcher, text);
                 }
@@ -300,7 +377,7 @@ public final class SearchIndex implements ChangeListener, AutoCloseable {
                 Query textQuery = allWords;
                 if (allWords != null && ranked.size() < depth && text.words().size() > 1) {
                     // All words preferred: documents with only some of the words follow those with all of them.
-                    Query anyWord = QUERIES.text(text, LuceneQueries.Mode.ANY_WORD);
+                    Query anyWord = QUERIES.text(text, LuceneQueries.Mode.ANY_WORD, known);
                     FacetsCollectorManager.FacetsResult more = run(searcher, anyWord, filter, current, depth);
                     Set<Integer> seen = new HashSet<>();
                     ranked.forEach(sd -> seen.add(sd.doc));
@@ -331,6 +408,17 @@ public final class SearchIndex implements ChangeListener, AutoCloseable {
         } catch (IOException e) {
             throw new SearchException("Search failed", e);
         }
+    }
+
+    /** Whether a word part occurs in the catalog: one terms-dictionary lookup per part and segment. */
+    private static Predicate<String> knownWords(IndexReader reader) {
+        return part -> {
+            try {
+                return reader.docFreq(new Term(Documents.WORDS, part)) > 0;
+            } catch (IOException e) {
+                throw new UncheckedIOException(e);
+            }
+        };
     }
 
     private SearchResult empty(SearchRequest request, IndexSearcher searcher, QueryText text) throws IOException {

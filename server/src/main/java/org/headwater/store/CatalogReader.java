@@ -443,6 +443,14 @@ public final class CatalogReader {
                 .where(SCHEMA_VERSION.DATASET_ID.in(ids), SCHEMA_VERSION.VALID_TO.isNull())
                 .orderBy(SCHEMA_VERSION.DATASET_ID, SCHEMA_COLUMN.ORDINAL)
                 .forEach(r -> columns.computeIfAbsent(r.value1(), k -> new ArrayList<>()).add(r.value2()));
+        return datasetEntries(ids, columns);
+    }
+
+    /** As {@link #datasetEntries(Collection)}, with the current column names already read by the caller. */
+    List<IndexEntry> datasetEntries(Collection<Long> ids, Map<Long, List<String>> columns) {
+        if (ids.isEmpty()) {
+            return List.of();
+        }
         Map<Long, List<String>> owners = new HashMap<>();
         db.select(DATASET_OWNER.DATASET_ID, OWNER.NAME)
                 .from(DATASET_OWNER).join(OWNER).on(OWNER.ID.eq(DATASET_OWNER.OWNER_ID))

@@ -84,7 +84,10 @@ public final class SearchSource {
                 .forEach(r -> (r.value2().equals("read") ? readBy : writtenBy)
                         .computeIfAbsent(r.value1(), k -> new ArrayList<>()).add(r.value3()));
         List<DatasetDoc> docs = new ArrayList<>();
-        for (IndexEntry entry : reader.datasetEntries(ids)) {
+        // The column names are read once, above, for both the entries and the column documents.
+        Map<Long, List<String>> names = new HashMap<>();
+        columns.forEach((id, list) -> names.put(id, list.stream().map(ColumnView::name).toList()));
+        for (IndexEntry entry : reader.datasetEntries(ids, names)) {
             long id = entry.id();
             docs.add(new DatasetDoc(entry, columns.getOrDefault(id, List.of()), titles.getOrDefault(id, List.of()),
                     readBy.getOrDefault(id, List.of()), writtenBy.getOrDefault(id, List.of())));

@@ -37,8 +37,14 @@ class SearchApiTest {
         Files.writeString(lake.resolve("heron_counts.csv"), "colony_id,heron_count,survey_date\nC1,12,2026-04-01\n");
         Files.writeString(lake.resolve("heron_colonies.csv"), "colony_id,colony_name\nC1,Reedmouth\n");
         Files.writeString(lake.resolve("otter_sightings.csv"), "sighting_id,otter_count\nS1,2\n");
+        // The heron counts were last written in 2020 against a one-day maximum age: late; the otter file is new
+        // against ten years: fresh; the colonies have no policy and no inputs: unknown (README, Freshness).
+        Files.writeString(lake.resolve(".headwater-freshness"), "heron_counts.csv max-age 1d\notter_sightings.csv max-age 3650d\n");
+        Files.setLastModifiedTime(lake.resolve("heron_counts.csv"),
+                java.nio.file.attribute.FileTime.from(java.time.Instant.parse("2020-01-01T00:00:00Z")));
         catalog = TestCatalogs.fresh(temp.resolve("catalog"));
         catalog.harvestFolder(lake, false, HarvestProgress.NONE);
+        catalog.freshness().record();
         server = ApiServer.start(catalog, "127.0.0.1", 0);
     }
 
@@ -104,6 +110,27 @@ class SearchApiTest {
         assertThat(get(q("heron") + "&page=0").statusCode()).isEqualTo(400);
         assertThat(get(q("heron") + "&explain=maybe").statusCode()).isEqualTo(400);
         assertThat(get(q("heron") + "&page=100&size=100").statusCode()).isEqualTo(400);
+    }
+
+    @Test
+    void theFreshParameterKeepsOnlyDatasetsAndTheirColumnsInTheRecordedStates() throws Exception {
+        JsonNode late = JSON.readTree(get(q("heron") + "&fresh=late").body());
+        assertThat(late.get("hits")).extracting(h -> h.get("name").asText()).isNotEmpty()
+                .allMatch(name -> name.startsWith("heron_counts.csv"));
+        assertThat(late.get("facets").get("freshness").toString()).isEqualTo("{\"late\":1}");
+        // The parameter means the same as the filter written in the text.
+        JsonNode written = JSON.readTree(get(q("heron fresh=late")).body());
+        assertThat(written.get("total").asInt()).isEqualTo(late.get("total").asInt());
+        JsonNode either = JSON.readTree(get(q("kind=file") + "&fresh=fresh,unknown").body());
+        assertThat(either.get("hits")).extracting(h -> h.get("name").asText())
+                .containsExactlyInAnyOrder("heron_colonies.csv", "otter_sightings.csv");
+        HttpResponse<String> bad = get(q("heron") + "&fresh=rotten");
+        assertThat(bad.statusCode()).isEqualTo(400);
+        assertThat(JSON.readTree(bad.body()).get("detail").asText())
+                .isEqualTo("Parameter 'fresh' takes freshness states separated by commas: fresh, due, late, stale, unknown (not 'rotten')");
+        HttpResponse<String> badInText = get(q("heron fresh=rotten"));
+        assertThat(badInText.statusCode()).isEqualTo(400);
+        assertThat(JSON.readTree(badInText.body()).get("detail").asText()).startsWith("The filter 'fresh=' at position 7");
     }
 
     @Test

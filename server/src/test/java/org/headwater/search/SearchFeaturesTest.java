@@ -51,7 +51,7 @@ class SearchFeaturesTest {
                 .isInstanceOf(QuerySyntaxException.class)
                 .hasMessage("The quote opened at position 9 is never closed");
         assertThatThrownBy(() -> search("colour=red"))
-                .hasMessage("Unknown filter 'colour' at position 1; filters are format, kind, owner, source, tag (written field=value)");
+                .hasMessage("Unknown filter 'colour' at position 1; filters are format, fresh, kind, owner, source, tag (written field=value)");
         assertThatThrownBy(() -> search("nitrate kind="))
                 .hasMessage("The filter 'kind=' at position 9 needs a value, such as kind=csv or kind=\"two words\"");
     }
@@ -82,6 +82,38 @@ class SearchFeaturesTest {
         } finally {
             catalog.index().useFreshness(FreshnessProvider.UNKNOWN);
         }
+    }
+
+    @Test
+    void theFreshFilterKeepsDatasetsInTheGivenStatesAndTheirColumnsButNoScriptsOrOwners() {
+        catalog.index().useFreshness(id -> id % 2 == 0 ? "fresh" : "late");
+        try {
+            SearchResult late = catalog.index().search(new SearchRequest("nitrate fresh=late", null, 1, 200, false));
+            SearchResult all = catalog.index().search(new SearchRequest("nitrate", null, 1, 200, false));
+            // expected: the unfiltered result narrowed to hits of datasets with an odd id (a column hit's id is its
+            // dataset's); scripts and owners have no freshness, so they leave.
+            List<String> expected = all.hits().stream()
+                    .filter(h -> !h.kind().equals("script") && !h.kind().equals("owner") && !h.kind().equals("team"))
+                    .filter(h -> h.id() % 2 == 1).map(SearchHit::name).sorted().toList();
+            assertThat(late.hits()).extracting(SearchHit::name).isNotEmpty().doesNotHaveDuplicates();
+            assertThat(late.hits().stream().map(SearchHit::name).sorted().toList()).isEqualTo(expected);
+            assertThat(late.facets().get("freshness").keySet()).containsExactly("late");
+            assertThat(catalog.index().search(new SearchRequest("nitrate fresh=late fresh=fresh", null, 1, 200, false))
+                    .total()).isEqualTo(all.hits().stream().filter(h -> !h.kind().equals("script")
+                            && !h.kind().equals("owner") && !h.kind().equals("team")).count());
+        } finally {
+            catalog.index().useFreshness(FreshnessProvider.UNKNOWN);
+        }
+    }
+
+    @Test
+    void theFreshFilterAcceptsTheStatesTheChecksRecordAndNoOthers() {
+        // expected: the five states of checks.FreshnessState, which the search package cannot see itself.
+        assertThat(FreshnessProvider.STATES).containsExactlyElementsOf(java.util.Arrays.stream(
+                org.headwater.checks.FreshnessState.values()).map(org.headwater.checks.FreshnessState::word).toList());
+        assertThatThrownBy(() -> search("nitrate fresh=old")).isInstanceOf(QuerySyntaxException.class)
+                .hasMessage("The filter 'fresh=' at position 9 takes a freshness state: fresh, due, late, stale, unknown (not 'old')");
+        assertThat(search("FRESH=Unknown kind=figure").total()).isEqualTo(3);
     }
 
     @Test

@@ -31,6 +31,11 @@ public final class Workspaces {
         return repoRoot().resolve("examples/quillwater-lab");
     }
 
+    /** The second invented workspace (a bakery cooperative's ovens, orders and deliveries), read-only by convention. */
+    public static Path bakery() {
+        return repoRoot().resolve("examples/ovenmere-bakery");
+    }
+
     /** A private copy of the demo workspace, for tests that touch files. */
     public static Path demoCopy(Path target) throws IOException {
         Path from = demo();
