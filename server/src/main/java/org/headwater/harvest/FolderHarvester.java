@@ -289,6 +289,7 @@ public final class FolderHarvester {
                             r.columns()));
                 }
                 progress.filesSeen(filesSeen);
+                journal.seen(harvestId, filesSeen);
             }
             flush();
         }
@@ -328,6 +329,7 @@ public final class FolderHarvester {
                     add(observation(f, facts, placements.get(f.name())));
                 }
                 progress.filesSeen(filesSeen);
+                journal.seen(harvestId, filesSeen);
                 flush();
             }
         }

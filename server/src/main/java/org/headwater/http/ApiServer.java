@@ -23,11 +23,13 @@ public final class ApiServer implements AutoCloseable {
     private final Javalin app;
     private final String host;
     private final QueryLimit limit;
+    private final HarvestStream harvestStream;
 
-    private ApiServer(Javalin app, String host, QueryLimit limit) {
+    private ApiServer(Javalin app, String host, QueryLimit limit, HarvestStream harvestStream) {
         this.app = app;
         this.host = host;
         this.limit = limit;
+        this.harvestStream = harvestStream;
     }
 
     /** Starts serving {@code catalog} on {@code host:port} with default settings; port 0 picks a free port. */
@@ -62,6 +64,7 @@ public final class ApiServer implements AutoCloseable {
         var search = new SearchRoutes(catalog);
         var scripts = new ScriptRoutes(catalog);
         var harvests = new HarvestRoutes(catalog);
+        var harvestStream = new HarvestStream(catalog, mapper);
         var runs = new RunRoutes(catalog, roots, access);
         var whence = new WhenceRoutes(catalog);
         var freshness = new FreshnessRoutes(catalog);
@@ -111,6 +114,7 @@ public final class ApiServer implements AutoCloseable {
             config.routes.get("/api/whence", limit.bounded(whence::whence));
             config.routes.get("/api/harvests", harvests::list);
             config.routes.get("/api/harvests/{id}", harvests::one);
+            config.routes.get("/api/harvest-events", harvestStream::handle);
             config.routes.get("/api/freshness", freshness::all);
             config.routes.get("/api/freshness/history", freshness::history);
             config.routes.get("/api/datasets/{id}/freshness", freshness::one);
@@ -126,7 +130,7 @@ public final class ApiServer implements AutoCloseable {
             Errors.register(config.routes);
         });
         app.start(host, port);
-        return new ApiServer(app, host, limit);
+        return new ApiServer(app, host, limit, harvestStream);
     }
 
     /** A registered endpoint with the role it declares (null: none declared). */
@@ -160,6 +164,7 @@ public final class ApiServer implements AutoCloseable {
 
     @Override
     public void close() {
+        harvestStream.close();
         app.stop();
         limit.close();
     }
