@@ -20,9 +20,9 @@ import org.headwater.ingest.HarvestEvent;
 /**
  * {@code GET /api/harvest-events}: the harvests of this server's process as they happen, as server-sent
  * events (WHATWG HTML, "Server-sent events"). Each event's name is its type ({@code started},
- * {@code progress}, {@code error}, {@code finished}) and its data one JSON object; a new stream first gets
+ * {@code progress}, {@code problem}, {@code finished}) and its data one JSON object; a new stream first gets
  * {@code hello} and the running harvests. Progress is sent at most every {@value #PROGRESS_MILLIS} ms per
- * harvest and at most {@value #ERRORS_PER_HARVEST} error events per harvest (the counts go on), so a
+ * harvest and at most {@value #ERRORS_PER_HARVEST} problem events per harvest (the counts go on), so a
  * harvest of many files cannot flood a browser. One thread writes to every stream: a harvest never waits
  * for a browser.
  */
@@ -90,7 +90,7 @@ final class HarvestStream implements AutoCloseable {
     private void heard(HarvestEvent event) {
         switch (event.type()) {
             case HarvestEvent.PROGRESS -> pendingProgress.put(event.harvestId(), event);
-            case HarvestEvent.ERROR -> sender.execute(() -> {
+            case HarvestEvent.PROBLEM -> sender.execute(() -> {
                 int sent = errorsSent.merge(event.harvestId(), 1, Integer::sum);
                 if (sent <= ERRORS_PER_HARVEST) {
                     broadcast(event.type(), event);

@@ -125,7 +125,7 @@ public final class HarvestJournal {
                 .execute();
         HarvestEvent now = live.computeIfPresent(harvestId, (id, e) -> new HarvestEvent(HarvestEvent.PROGRESS, id, e.source(),
                 e.at(), e.filesSeen(), e.errors() + 1, RUNNING, null, null, null, null));
-        publish(new HarvestEvent(HarvestEvent.ERROR, harvestId, now == null ? null : now.source(), clock.instant(), null,
+        publish(new HarvestEvent(HarvestEvent.PROBLEM, harvestId, now == null ? null : now.source(), clock.instant(), null,
                 now == null ? null : now.errors(), null, null, Tx.truncate(uri, 2000), kind, Tx.truncate(message == null ? kind : message, 4000)));
     }
 

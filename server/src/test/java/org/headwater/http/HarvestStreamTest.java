@@ -94,13 +94,18 @@ class HarvestStreamTest {
 
     /** A folder of 60 small CSV files and one symbolic link, which a harvest refuses to follow. */
     Path folder() throws Exception {
-        Path dir = Files.createDirectories(temp.resolve("field-notes"));
-        for (int i = 0; i < 60; i++) {
+        return fieldNotes(temp.resolve("field-notes"), 60, temp.resolve("outside.csv"));
+    }
+
+    /** {@code files} small CSV files of invented field notes and a link to {@code outside} (a refused link). */
+    static Path fieldNotes(Path dir, int files, Path outside) throws java.io.IOException {
+        Files.createDirectories(dir);
+        for (int i = 0; i < files; i++) {
             Files.writeString(dir.resolve("plot_" + (char) ('a' + i % 26) + (i / 26) + ".csv"),
                     "plot,depth_cm,reading\n" + i + ",12," + (i * 0.5) + "\n", StandardCharsets.UTF_8);
         }
-        Files.createSymbolicLink(dir.resolve("elsewhere.csv"), temp.resolve("outside.csv"));
-        Files.writeString(temp.resolve("outside.csv"), "x\n1\n");
+        Files.writeString(outside, "x\n1\n");
+        Files.createSymbolicLink(dir.resolve("elsewhere.csv"), outside);
         return dir;
     }
 
@@ -125,7 +130,7 @@ class HarvestStreamTest {
 
         List<String> types = got.stream().map(Received::type).toList();
         assertThat(types.get(0)).isEqualTo("started");
-        assertThat(types).contains("progress", "error");
+        assertThat(types).contains("progress", "problem");
         assertThat(types.indexOf("finished")).isEqualTo(types.size() - 1);
         for (Received r : got) {
             assertThat(r.data().get("harvest_id").asLong()).isEqualTo(summary.harvestId());
@@ -153,7 +158,7 @@ class HarvestStreamTest {
                 last = seen;
             }
         }
-        Received error = got.stream().filter(r -> r.type().equals("error")).findFirst().orElseThrow();
+        Received error = got.stream().filter(r -> r.type().equals("problem")).findFirst().orElseThrow();
         // expected: README "Paths": a harvest never follows a link; one leading out of the folder is listed
         // with kind symlink_escape
         assertThat(error.data().get("kind").asText()).isEqualTo("symlink_escape");
@@ -244,6 +249,24 @@ class HarvestStreamTest {
             assertThat(c).as("the stream ended before its hello").isNotEqualTo(-1);
             seen.append((char) c);
         }
+    }
+
+    /** A progress listener that waits after each file, as a slow disk would. */
+    static HarvestProgress slow(long millisPerFile) {
+        return new HarvestProgress() {
+            @Override
+            public void filesSeen(int count) {
+                try {
+                    Thread.sleep(millisPerFile);
+                } catch (InterruptedException e) {
+                    Thread.currentThread().interrupt();
+                }
+            }
+
+            @Override
+            public void finished() {
+            }
+        };
     }
 
     static HttpResponse<String> get(String url, String token) throws Exception {
