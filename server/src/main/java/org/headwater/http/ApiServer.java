@@ -121,6 +121,7 @@ public final class ApiServer implements AutoCloseable {
             config.routes.put("/api/datasets/{id}/freshness-policy", freshness::putPolicy, Role.EDITOR);
             config.routes.get("/api/ui/overview", ui::overview);
             config.routes.get("/api/ui/figure/{id}", ui::figure);
+            config.routes.get("/api/ui/lineage/{id}", limit.bounded(ui::neighbourhood));
             config.routes.get("/api/datasets/{id}/upstream", limit.bounded(lineage::upstream));
             config.routes.get("/api/datasets/{id}/downstream", limit.bounded(lineage::downstream));
             config.routes.get("/api/impact", limit.bounded(lineage::impact));
