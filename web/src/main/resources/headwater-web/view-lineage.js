@@ -290,9 +290,8 @@ hw.views.lineage = async function (main, route) {
   const kinds = new Map();
   try {
     // the starting picture in one answer: every dataset within the steps asked for, with its links
-    const [all, around] = await Promise.all([hw.get("/api/datasets?limit=1000"), hw.get("/api/ui/lineage/" + centre + "?depth=" + state.depth)]);
-    for (const d of all.items) kinds.set(d.id, d.kind);
-    for (const b of around.datasets) kinds.set(b.id, b.kind);
+    const around = await hw.get("/api/ui/lineage/" + centre + "?depth=" + state.depth);
+    for (const [id, kind] of Object.entries(around.kinds)) kinds.set(Number(id), kind);
     for (const b of around.datasets) accept(b.id, b.report);
     for (const b of around.datasets) if (b.distance < state.depth || b.id === centre) known.get(b.id).expanded = true;
   } catch (e) {

@@ -92,7 +92,7 @@ final class UiRoutes {
      * One request instead of one per box, so a 500-box view neither waits on 500 round trips nor runs
      * into the rate limit.
      */
-    record Neighbourhood(long centre, int depth, boolean truncated, List<Box> datasets) {
+    record Neighbourhood(long centre, int depth, boolean truncated, List<Box> datasets, Map<Long, String> kinds) {
     }
 
     /** One dataset of the neighbourhood: how far from the centre, and its lineage report. */
@@ -104,8 +104,11 @@ final class UiRoutes {
         int depth = Params.intParam(ctx, "depth", 2, 0, 50);
         var reader = catalog.get().reader();
         java.time.Instant asOf = Params.asOf(ctx);
-        DatasetView start = reader.dataset(centre, asOf).orElseThrow(() -> ApiError.notFound("No dataset with id " + centre));
+        Map<Long, List<String>> recentRuns = new HashMap<>();
+        DatasetView start = reader.lineageView(centre, asOf, recentRuns)
+                .orElseThrow(() -> ApiError.notFound("No dataset with id " + centre));
         List<Box> boxes = new java.util.ArrayList<>();
+        java.util.Set<Long> beyond = new java.util.HashSet<>();
         Map<Long, Integer> distance = new HashMap<>(Map.of(centre, 0));
         java.util.ArrayDeque<DatasetView> queue = new java.util.ArrayDeque<>(List.of(start));
         boolean truncated = false;
@@ -115,6 +118,8 @@ final class UiRoutes {
             boxes.add(new Box(d.id(), d.kind(), at, org.headwater.lineage.LineageReport.of(reader, d)));
             int next = at + 1;
             if (next > depth) {
+                d.upstream().forEach(e -> beyond.add(e.datasetId()));
+                d.downstream().forEach(e -> beyond.add(e.datasetId()));
                 continue;
             }
             for (var e : java.util.stream.Stream.concat(d.upstream().stream(), d.downstream().stream()).toList()) {
@@ -126,10 +131,19 @@ final class UiRoutes {
                     break;
                 }
                 distance.put(e.datasetId(), next);
-                reader.dataset(e.datasetId(), asOf).ifPresent(queue::add);
+                reader.lineageView(e.datasetId(), asOf, recentRuns).ifPresent(queue::add);
             }
         }
-        ctx.json(new Neighbourhood(centre, depth, truncated, boxes));
+        // the kinds of the boxes one step past the edge, shown (with their sign) when one is opened
+        beyond.removeAll(distance.keySet());
+        Map<Long, String> kinds = new TreeMap<>();
+        if (!beyond.isEmpty()) {
+            catalog.get().store().dsl().select(org.headwater.store.schema.Tables.DATASET.ID, org.headwater.store.schema.Tables.DATASET.KIND)
+                    .from(org.headwater.store.schema.Tables.DATASET).where(org.headwater.store.schema.Tables.DATASET.ID.in(beyond))
+                    .forEach(r -> kinds.put(r.value1(), r.value2()));
+        }
+        boxes.forEach(b -> kinds.put(b.id(), b.kind()));
+        ctx.json(new Neighbourhood(centre, depth, truncated, boxes, kinds));
     }
 
     void figure(Context ctx) throws IOException {
