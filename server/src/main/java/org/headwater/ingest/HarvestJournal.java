@@ -2,6 +2,7 @@ package org.headwater.ingest;
 
 import static org.headwater.store.schema.Tables.HARVEST;
 import static org.headwater.store.schema.Tables.HARVEST_ERROR;
+import static org.headwater.store.schema.Tables.SOURCE;
 
 import java.time.Clock;
 import java.time.OffsetDateTime;
@@ -49,9 +50,9 @@ public final class HarvestJournal {
                 .returningResult(HARVEST.ID)
                 .fetchOne(HARVEST.ID));
         claims.put(claim.id(), claim);
-        String source = store.dsl().select(org.headwater.store.schema.Tables.SOURCE.NAME)
-                .from(org.headwater.store.schema.Tables.SOURCE)
-                .where(org.headwater.store.schema.Tables.SOURCE.ID.eq(sourceId)).fetchOne(org.headwater.store.schema.Tables.SOURCE.NAME);
+        String source = store.dsl().select(SOURCE.NAME)
+                .from(SOURCE)
+                .where(SOURCE.ID.eq(sourceId)).fetchOne(SOURCE.NAME);
         HarvestEvent started = new HarvestEvent(HarvestEvent.STARTED, claim.id(), source, clock.instant(), 0, 0,
                 RUNNING, null, null, null, null);
         live.put(claim.id(), started);
@@ -158,9 +159,9 @@ public final class HarvestJournal {
     }
 
     private String sourceOf(long harvestId) {
-        return store.dsl().select(org.headwater.store.schema.Tables.SOURCE.NAME).from(HARVEST)
-                .join(org.headwater.store.schema.Tables.SOURCE).on(org.headwater.store.schema.Tables.SOURCE.ID.eq(HARVEST.SOURCE_ID))
-                .where(HARVEST.ID.eq(harvestId)).fetchOne(org.headwater.store.schema.Tables.SOURCE.NAME);
+        return store.dsl().select(SOURCE.NAME).from(HARVEST)
+                .join(SOURCE).on(SOURCE.ID.eq(HARVEST.SOURCE_ID))
+                .where(HARVEST.ID.eq(harvestId)).fetchOne(SOURCE.NAME);
     }
 
     /** Counts errors found after a harvest's files were done (its policy file), which make it one with errors. */
