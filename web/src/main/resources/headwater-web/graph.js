@@ -98,6 +98,45 @@ const hwGraph = (function () {
     return short("\u2026/" + out, max);
   }
 
+  /**
+   * How many characters of a name and of a column fit a box, measured in this browser's own fonts (they
+   * differ between browsers and systems: Firefox's sans-serif is wider than Chromium's here). One probe
+   * per drawing; a detached target measures nothing and gets the counts that fit the widest usual fonts.
+   */
+  function fitting(target) {
+    const sample = "station_monthly_summary.csv";
+    const probe = svg("g", { class: "node" });
+    const label = svg("text", { class: "label" }, sample);
+    const column = svg("text", { class: "col" }, sample);
+    probe.append(label, column);
+    target.append(probe);
+    const perLabel = label.getComputedTextLength() / sample.length;
+    const perColumn = column.getComputedTextLength() / sample.length;
+    probe.remove();
+    return {
+      label: perLabel > 0 ? Math.max(8, Math.floor((NODE_W - 62) / perLabel)) : 22,
+      column: perColumn > 0 ? Math.max(8, Math.floor((NODE_W - 24) / perColumn)) : 28,
+    };
+  }
+
+  /**
+   * The per-character estimate misses for names of wide letters: every label is measured once (all reads
+   * together, so one layout), and those still wider than the room are cut further, at most three rounds.
+   */
+  function shortenOverflowing(labels, room) {
+    let over = labels;
+    for (let round = 0; round < 3 && over.length; round++) {
+      const widths = over.map(([t]) => t.getComputedTextLength());
+      const next = [];
+      over.forEach(([t, name], i) => {
+        if (widths[i] <= room) return;
+        t.textContent = fitted(name, Math.max(4, Math.floor(t.textContent.length * room / widths[i]) - 1));
+        next.push([t, name]);
+      });
+      over = next;
+    }
+  }
+
   /** Draws the laid-out graph into an <svg>; returns Map id -> node element. */
   function draw(target, graph, placed, signs) {
     const pos = placed.pos;
@@ -112,6 +151,8 @@ const hwGraph = (function () {
       defs.append(m);
     }
     target.append(defs);
+    const fit = fitting(target);
+    const labels = [];
     const edgeLayer = svg("g", { class: "edges" });
     const nodeLayer = svg("g", { class: "nodes" });
     const lit = graph.highlight || { nodes: new Set(), edges: new Set() };
@@ -161,7 +202,9 @@ const hwGraph = (function () {
       });
       g.append(svg("rect", { width: p.w, height: p.h, rx: "6", class: "box" }));
       g.append(svg("text", { x: "10", y: "22", class: "sign" }, (signs && signs[n.kind]) || "\u2022"));
-      g.append(svg("text", { x: "30", y: "22", class: "label" }, fitted(n.name, 25)));
+      const label = svg("text", { x: "30", y: "22", class: "label" }, fitted(n.name, fit.label));
+      labels.push([label, n.name]);
+      g.append(label);
       g.append(svg("title", {}, n.name));
       if (n.expandable) {
         const t = svg("g", { class: "toggle", "data-toggle": String(n.id), transform: "translate(" + (p.w - 24) + ",8)" });
@@ -170,7 +213,7 @@ const hwGraph = (function () {
       }
       if (graph.columnLevel && n.columns) {
         n.columns.slice(0, MAX_ROWS).forEach((c, i) => {
-          g.append(svg("text", { x: "14", y: String(HEAD_H + ROW_H * i + 13), class: "col" + (graph.usedColumns && graph.usedColumns.has(n.id + "\u0000" + c) ? " used" : "") }, short(c, 30)));
+          g.append(svg("text", { x: "14", y: String(HEAD_H + ROW_H * i + 13), class: "col" + (graph.usedColumns && graph.usedColumns.has(n.id + "\u0000" + c) ? " used" : "") }, short(c, fit.column)));
         });
         if (n.columns.length > MAX_ROWS) {
           g.append(svg("text", { x: "14", y: String(HEAD_H + ROW_H * MAX_ROWS + 13), class: "col more" }, "+" + (n.columns.length - MAX_ROWS) + " more columns"));
@@ -181,6 +224,7 @@ const hwGraph = (function () {
     }
     nodeLayer.append(nodeFrag);
     target.append(edgeLayer, nodeLayer);
+    shortenOverflowing(labels, NODE_W - 58);
     return nodes;
   }
 

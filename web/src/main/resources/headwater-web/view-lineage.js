@@ -7,12 +7,14 @@ hw.views.lineage = async function (main, route) {
   const centre = Number(route.parts[1]);
   const params = route.params;
   const EVIDENCE = ["static", "runtime", "declared", "inferred"];
+  const DEPTH = 2; // steps opened around the centre when the address says nothing
   const state = {
     columns: params.get("columns") === "1",
     evidence: new Set((params.get("evidence") || EVIDENCE.join(",")).split(",").filter((e) => EVIDENCE.includes(e))),
     min: Math.min(1, Math.max(0, Number(params.get("min") || 0))),
     from: params.get("from") ? Number(params.get("from")) : null,
     to: params.get("to") ? Number(params.get("to")) : null,
+    depth: params.get("depth") ? Math.max(0, Math.min(50, Math.floor(Number(params.get("depth")) || 0))) : DEPTH,
     selected: null,
   };
   const known = new Map(); // id -> {id, name, kind, report, expanded}
@@ -43,10 +45,26 @@ hw.views.lineage = async function (main, route) {
   slider.setAttribute("aria-label", "Lowest confidence shown");
   const sliderValue = hw.el("output", state.min.toFixed(2));
   slider.addEventListener("input", () => { state.min = Number(slider.value); sliderValue.textContent = state.min.toFixed(2); refresh(false); });
+  const steps = hw.el("select");
+  steps.id = "open-steps";
+  steps.setAttribute("aria-label", "Steps opened around the centre");
+  for (const n of [...new Set([1, 2, 3, 5, 10, 20, state.depth])].sort((a, b) => a - b)) {
+    const o = hw.el("option", String(n));
+    o.value = String(n);
+    o.selected = n === state.depth;
+    steps.append(o);
+  }
+  // A new depth is a new starting picture: a new address, which the router draws afresh.
+  steps.addEventListener("change", () => {
+    const next = new URLSearchParams(params);
+    if (Number(steps.value) === DEPTH) next.delete("depth"); else next.set("depth", steps.value);
+    location.hash = "#/lineage/" + centre + (next.toString() ? "?" + next : "");
+  });
   const pathNote = hw.el("p", null, "path-note");
   pathNote.id = "path-note";
   const tools = hw.h("div", "tools",
     hw.h("fieldset", null, hw.el("legend", "Level"), columnsBox),
+    hw.h("fieldset", null, hw.el("legend", "Steps open"), hw.h("label", null, steps)),
     hw.h("fieldset", "legend", hw.el("legend", "Evidence (line style)"), ...evidenceBoxes),
     hw.h("fieldset", null, hw.el("legend", "Lowest confidence"), hw.h("label", null, slider, " ", sliderValue)),
     pathNote);
@@ -73,7 +91,10 @@ hw.views.lineage = async function (main, route) {
   async function report(id) {
     const n = known.get(id);
     if (n && n.report) return n.report;
-    const r = await hw.get("/api/datasets/" + id + "/lineage");
+    return accept(id, await hw.get("/api/datasets/" + id + "/lineage"));
+  }
+
+  function accept(id, r) {
     const node = note(id, r.dataset);
     node.report = r;
     for (const e of r.upstream) { note(e.dataset_id, e.dataset_name); addEdge(e, e.dataset_id, id); }
@@ -127,6 +148,7 @@ hw.views.lineage = async function (main, route) {
     if (state.min > 0) next.set("min", String(state.min));
     if (state.from !== null) next.set("from", String(state.from));
     if (state.to !== null) next.set("to", String(state.to));
+    if (state.depth !== DEPTH) next.set("depth", String(state.depth));
     hw.replaceParams(next);
     let v = visible();
     if (state.columns && needColumns) {
@@ -267,26 +289,16 @@ hw.views.lineage = async function (main, route) {
 
   const kinds = new Map();
   try {
-    const all = await hw.get("/api/datasets?limit=1000");
-    for (const d of all.items) kinds.set(d.id, d.kind);
-    await report(centre);
+    // the starting picture in one answer: every dataset within the steps asked for, with its links
+    const around = await hw.get("/api/ui/lineage/" + centre + "?depth=" + state.depth);
+    for (const [id, kind] of Object.entries(around.kinds)) kinds.set(Number(id), kind);
+    for (const b of around.datasets) accept(b.id, b.report);
+    for (const b of around.datasets) if (b.distance < state.depth || b.id === centre) known.get(b.id).expanded = true;
   } catch (e) {
     status.textContent = e.message;
     return;
   }
   title.replaceChildren("Lineage of ", hw.link(hw.datasetHref(centre), nameOf(centre)));
   document.title = "Lineage of " + nameOf(centre) + " · Headwater";
-  // Open the centre and two steps on each side, so a small pipeline shows whole without clicking.
-  await expand(centre, true);
-  let ring = [centre];
-  for (let step = 0; step < 2; step++) {
-    const next = [];
-    for (const id of ring) {
-      const r = known.get(id).report;
-      for (const e of r ? r.upstream.concat(r.downstream) : []) if (!known.get(e.dataset_id).expanded && next.length < 30) next.push(e.dataset_id);
-    }
-    await Promise.all(next.map((id) => expand(id, true).catch(() => null)));
-    ring = next;
-  }
   await refresh(true);
 };

@@ -291,6 +291,7 @@ public final class FolderHarvester {
                             r.columns()));
                 }
                 progress.filesSeen(filesSeen);
+                journal.seen(harvestId, filesSeen);
             }
             flush();
         }
@@ -330,6 +331,7 @@ public final class FolderHarvester {
                     add(observation(f, facts, placements.get(f.name())));
                 }
                 progress.filesSeen(filesSeen);
+                journal.seen(harvestId, filesSeen);
                 flush();
             }
         }

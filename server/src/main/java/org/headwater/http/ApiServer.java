@@ -3,12 +3,14 @@ package org.headwater.http;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import io.javalin.Javalin;
 import java.util.concurrent.CompletableFuture;
+import java.util.concurrent.atomic.AtomicReference;
 import io.javalin.http.HttpStatus;
 import io.javalin.http.staticfiles.Location;
 import io.javalin.json.JavalinJackson;
 import org.headwater.Catalog;
 import org.headwater.access.Role;
 import org.headwater.access.Roots;
+import org.headwater.harvest.config.SourceSchedule;
 import org.slf4j.Logger;
 import org.slf4j.LoggerFactory;
 
@@ -23,18 +25,21 @@ public final class ApiServer implements AutoCloseable {
     private final Javalin app;
     private final String host;
     private final QueryLimit limit;
-    private final java.util.concurrent.atomic.AtomicReference<org.headwater.harvest.config.SourceSchedule> sources;
+    private final AtomicReference<SourceSchedule> sources;
+    private final HarvestStream harvestStream;
 
     private ApiServer(Javalin app, String host, QueryLimit limit,
-            java.util.concurrent.atomic.AtomicReference<org.headwater.harvest.config.SourceSchedule> sources) {
+            AtomicReference<SourceSchedule> sources,
+            HarvestStream harvestStream) {
         this.app = app;
         this.host = host;
         this.limit = limit;
         this.sources = sources;
+        this.harvestStream = harvestStream;
     }
 
     /** Lets {@code /api/sources} show and harvest the sources of {@code serve --config}. */
-    public void offerSources(org.headwater.harvest.config.SourceSchedule schedule) {
+    public void offerSources(SourceSchedule schedule) {
         sources.set(schedule);
     }
 
@@ -70,13 +75,14 @@ public final class ApiServer implements AutoCloseable {
         var search = new SearchRoutes(catalog);
         var scripts = new ScriptRoutes(catalog);
         var harvests = new HarvestRoutes(catalog);
+        var harvestStream = new HarvestStream(catalog, mapper);
         var runs = new RunRoutes(catalog, roots, access);
         var whence = new WhenceRoutes(catalog);
         var freshness = new FreshnessRoutes(catalog);
         var ui = new UiRoutes(catalog);
         var lineage = new LineageRoutes(catalog);
         var audit = new AuditRoutes(access);
-        var sources = new java.util.concurrent.atomic.AtomicReference<org.headwater.harvest.config.SourceSchedule>();
+        var sources = new AtomicReference<SourceSchedule>();
         var sourceRoutes = new SourceRoutes(sources);
         long startedAt = System.currentTimeMillis();
         Javalin app = Javalin.create(config -> {
@@ -122,12 +128,14 @@ public final class ApiServer implements AutoCloseable {
             config.routes.get("/api/whence", limit.bounded(whence::whence));
             config.routes.get("/api/harvests", harvests::list);
             config.routes.get("/api/harvests/{id}", harvests::one);
+            config.routes.get("/api/harvest-events", harvestStream::handle);
             config.routes.get("/api/freshness", freshness::all);
             config.routes.get("/api/freshness/history", freshness::history);
             config.routes.get("/api/datasets/{id}/freshness", freshness::one);
             config.routes.put("/api/datasets/{id}/freshness-policy", freshness::putPolicy, Role.EDITOR);
             config.routes.get("/api/ui/overview", ui::overview);
             config.routes.get("/api/ui/figure/{id}", ui::figure);
+            config.routes.get("/api/ui/lineage/{id}", limit.bounded(ui::neighbourhood));
             config.routes.get("/api/datasets/{id}/upstream", limit.bounded(lineage::upstream));
             config.routes.get("/api/datasets/{id}/downstream", limit.bounded(lineage::downstream));
             config.routes.get("/api/impact", limit.bounded(lineage::impact));
@@ -139,7 +147,7 @@ public final class ApiServer implements AutoCloseable {
             Errors.register(config.routes);
         });
         app.start(host, port);
-        return new ApiServer(app, host, limit, sources);
+        return new ApiServer(app, host, limit, sources, harvestStream);
     }
 
     /** A registered endpoint with the role it declares (null: none declared). */
@@ -173,6 +181,7 @@ public final class ApiServer implements AutoCloseable {
 
     @Override
     public void close() {
+        harvestStream.close();
         app.stop();
         limit.close();
     }

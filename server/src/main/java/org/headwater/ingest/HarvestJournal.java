@@ -2,6 +2,7 @@ package org.headwater.ingest;
 
 import static org.headwater.store.schema.Tables.HARVEST;
 import static org.headwater.store.schema.Tables.HARVEST_ERROR;
+import static org.headwater.store.schema.Tables.SOURCE;
 
 import java.time.Clock;
 import java.time.OffsetDateTime;
@@ -10,6 +11,8 @@ import java.util.ArrayList;
 import java.util.List;
 import java.util.Map;
 import java.util.concurrent.ConcurrentHashMap;
+import java.util.concurrent.CopyOnWriteArrayList;
+import java.util.function.Consumer;
 import org.headwater.store.Store;
 
 /**
@@ -30,6 +33,9 @@ public final class HarvestJournal {
     private final Store store;
     private final Clock clock;
     private final Map<Long, Store.Claim> claims = new ConcurrentHashMap<>();
+    /** Harvests of this process still running, with their counts so far (memory only: live status). */
+    private final Map<Long, HarvestEvent> live = new ConcurrentHashMap<>();
+    private final List<Consumer<HarvestEvent>> listeners = new CopyOnWriteArrayList<>();
 
     public HarvestJournal(Store store, Clock clock) {
         this.store = store;
@@ -44,7 +50,48 @@ public final class HarvestJournal {
                 .returningResult(HARVEST.ID)
                 .fetchOne(HARVEST.ID));
         claims.put(claim.id(), claim);
+        String source = store.dsl().select(SOURCE.NAME)
+                .from(SOURCE)
+                .where(SOURCE.ID.eq(sourceId)).fetchOne(SOURCE.NAME);
+        HarvestEvent started = new HarvestEvent(HarvestEvent.STARTED, claim.id(), source, clock.instant(), 0, 0,
+                RUNNING, null, null, null, null);
+        live.put(claim.id(), started);
+        publish(started);
         return claim.id();
+    }
+
+    /**
+     * Hears every harvest event of this process, on the harvesting thread: a listener must hand slow work
+     * elsewhere. Closing the handle stops the events.
+     */
+    public AutoCloseable listen(Consumer<HarvestEvent> listener) {
+        listeners.add(listener);
+        return () -> listeners.remove(listener);
+    }
+
+    /** The harvests of this process that are running, each as its latest {@code progress} (or start). */
+    public List<HarvestEvent> running() {
+        return live.values().stream().sorted(java.util.Comparator.comparingLong(HarvestEvent::harvestId)).toList();
+    }
+
+    /** Counts one more file (or table) looked at; kept in memory and told to listeners, not stored. */
+    public void seen(long harvestId, int filesSeen) {
+        HarvestEvent now = live.computeIfPresent(harvestId, (id, e) -> new HarvestEvent(HarvestEvent.PROGRESS, id, e.source(),
+                clock.instant(), filesSeen, e.errors(), RUNNING, null, null, null, null));
+        if (now != null) {
+            publish(now);
+        }
+    }
+
+    private void publish(HarvestEvent event) {
+        for (Consumer<HarvestEvent> l : listeners) {
+            try {
+                l.accept(event);
+            } catch (RuntimeException e) {
+                // a listener's fault must never stop a harvest
+                org.slf4j.LoggerFactory.getLogger(HarvestJournal.class).warn("A harvest listener failed: {}", e.toString());
+            }
+        }
     }
 
     /**
@@ -77,6 +124,10 @@ public final class HarvestJournal {
                 .set(HARVEST_ERROR.KIND, kind)
                 .set(HARVEST_ERROR.MESSAGE, Tx.truncate(message == null ? kind : message, 4000))
                 .execute();
+        HarvestEvent now = live.computeIfPresent(harvestId, (id, e) -> new HarvestEvent(HarvestEvent.PROGRESS, id, e.source(),
+                e.at(), e.filesSeen(), e.errors() + 1, RUNNING, null, null, null, null));
+        publish(new HarvestEvent(HarvestEvent.PROBLEM, harvestId, now == null ? null : now.source(), clock.instant(), null,
+                now == null ? null : now.errors(), null, null, Tx.truncate(uri, 2000), kind, Tx.truncate(message == null ? kind : message, 4000)));
     }
 
     /** Records which entry of a sources file ran the harvest, when that is not the source's own name. */
@@ -108,6 +159,15 @@ public final class HarvestJournal {
         if (claim != null) {
             claim.close();
         }
+        HarvestEvent last = live.remove(harvestId);
+        publish(new HarvestEvent(HarvestEvent.FINISHED, harvestId, last == null ? sourceOf(harvestId) : last.source(), clock.instant(),
+                counts.filesSeen(), counts.errors(), status, counts, null, null, null));
+    }
+
+    private String sourceOf(long harvestId) {
+        return store.dsl().select(SOURCE.NAME).from(HARVEST)
+                .join(SOURCE).on(SOURCE.ID.eq(HARVEST.SOURCE_ID))
+                .where(HARVEST.ID.eq(harvestId)).fetchOne(SOURCE.NAME);
     }
 
     /** Counts errors found after a harvest's files were done (its policy file), which make it one with errors. */
@@ -117,6 +177,19 @@ public final class HarvestJournal {
                 .set(HARVEST.STATUS, org.jooq.impl.DSL.when(HARVEST.STATUS.eq(OK), WITH_ERRORS).otherwise(HARVEST.STATUS))
                 .where(HARVEST.ID.eq(harvestId))
                 .execute();
+        var row = store.dsl().select(HARVEST.STATUS, HARVEST.FILES_SEEN, HARVEST.FILES_UNCHANGED, HARVEST.FILES_IGNORED,
+                HARVEST.DATASETS_SEEN, HARVEST.SCRIPTS_SEEN, HARVEST.CHANGES, HARVEST.REMOVED, HARVEST.ERRORS)
+                .from(HARVEST).where(HARVEST.ID.eq(harvestId)).fetchOne();
+        if (row != null && !RUNNING.equals(row.value1())) {
+            Counts counts = new Counts(n(row.value2()), n(row.value3()), n(row.value4()), n(row.value5()), n(row.value6()),
+                    n(row.value7()), n(row.value8()), n(row.value9()));
+            publish(new HarvestEvent(HarvestEvent.FINISHED, harvestId, sourceOf(harvestId), clock.instant(), counts.filesSeen(),
+                    counts.errors(), row.value1(), counts, null, null, null));
+        }
+    }
+
+    private static int n(Integer value) {
+        return value == null ? 0 : value;
     }
 
     private OffsetDateTime now() {

@@ -109,6 +109,7 @@ final class Adjacency {
 
     int offset(int node) {
         int[] list = own == null || node >= own.length ? null : own[node];
-        return list != null ? 0 : offsets[node];
+        // a node added after the last growth of these arrays has no list yet: an empty one at 0
+        return list != null || node >= offsets.length ? 0 : offsets[node];
     }
 }

@@ -146,8 +146,27 @@ public final class CatalogReader {
                 schema == null ? null : schema.getVersion(),
                 columns,
                 partitions(id, asOf),
-                edges(id, true, asOf),
-                edges(id, false, asOf)));
+                edges(id, true, asOf, null),
+                edges(id, false, asOf, null)));
+    }
+
+    /**
+     * One dataset with only what its lineage needs (identity, columns, links; every other fact left empty),
+     * for the web UI's lineage view, which reads hundreds at once. {@code recentRuns} is shared across
+     * those calls so that each script's latest runs are read once, not once per link.
+     */
+    public Optional<DatasetView> lineageView(long id, Instant asOf, Map<Long, List<String>> recentRuns) {
+        Record identity = db.select(DATASET.NAME, DATASET.KIND).from(DATASET).where(DATASET.ID.eq(id)).fetchOne();
+        if (identity == null) {
+            return Optional.empty();
+        }
+        var schema = db.selectFrom(SCHEMA_VERSION)
+                .where(SCHEMA_VERSION.DATASET_ID.eq(id), Validity.at(SCHEMA_VERSION.VALID_FROM, SCHEMA_VERSION.VALID_TO, asOf))
+                .fetchOne();
+        return Optional.of(new DatasetView(id, null, identity.get(DATASET.NAME), identity.get(DATASET.KIND), null, true, null,
+                null, null, null, null, null, false, null, null, null, List.of(), List.of(),
+                schema == null ? null : schema.getVersion(), schema == null ? List.of() : columnsOf(schema.getId()), List.of(),
+                edges(id, true, asOf, recentRuns), edges(id, false, asOf, recentRuns)));
     }
 
     /** The member files of a partitioned set, by name. */
@@ -199,7 +218,7 @@ public final class CatalogReader {
                 .fetch(c -> new ColumnView(c.getOrdinal(), c.getName(), c.getDataType(), c.getNullable()));
     }
 
-    private List<EdgeView> edges(long datasetId, boolean upstream, Instant asOf) {
+    private List<EdgeView> edges(long datasetId, boolean upstream, Instant asOf, Map<Long, List<String>> recentRuns) {
         LineageEdge e = LINEAGE_EDGE;
         var here = upstream ? e.TARGET_DATASET_ID : e.SOURCE_DATASET_ID;
         var there = upstream ? e.SOURCE_DATASET_ID : e.TARGET_DATASET_ID;
@@ -211,7 +230,7 @@ public final class CatalogReader {
                 .where(here.eq(datasetId), Validity.at(e.VALID_FROM, e.VALID_TO, asOf))
                 .orderBy(DATASET.NAME, e.ID)
                 .fetch(r -> {
-                    Corroboration c = corroborate(r.value7(), r.value8(), r.value9(), r.value5(), r.value6(), asOf);
+                    Corroboration c = corroborate(r.value7(), r.value8(), r.value9(), r.value5(), r.value6(), asOf, recentRuns);
                     return new EdgeView(r.value1(), r.value2(), r.value3(), r.value4(), r.value5(), r.value6(),
                             c.word(), c.confidence());
                 });
@@ -229,7 +248,7 @@ public final class CatalogReader {
      * read its source and wrote its target.
      */
     private Corroboration corroborate(long source, long target, Long script, String evidence, double confidence,
-            Instant asOf) {
+            Instant asOf, Map<Long, List<String>> recentRuns) {
         if (script == null || (!evidence.equals("static") && !evidence.equals("runtime"))) {
             return new Corroboration(evidence, confidence);
         }
@@ -238,8 +257,8 @@ public final class CatalogReader {
             return staticTwin == null ? new Corroboration("runtime only", confidence)
                     : new Corroboration("static and runtime", 1 - (1 - confidence) * (1 - staticTwin));
         }
-        List<String> recent = db.select(RUN.ID).from(RUN).where(RUN.SCRIPT_ID.eq(script))
-                .orderBy(RUN.STARTED_AT.desc()).limit(RECENT_RUNS).fetch(RUN.ID);
+        List<String> recent = recentRuns == null ? recentRuns(script)
+                : recentRuns.computeIfAbsent(script, this::recentRuns);
         if (recent.isEmpty()) {
             return new Corroboration("static only", confidence);
         }
@@ -254,6 +273,11 @@ public final class CatalogReader {
         Double runtimeTwin = twin(source, target, script, "runtime", asOf);
         double other = runtimeTwin == null ? 1.0 : runtimeTwin;
         return new Corroboration("static and runtime", 1 - (1 - confidence) * (1 - other));
+    }
+
+    private List<String> recentRuns(long script) {
+        return db.select(RUN.ID).from(RUN).where(RUN.SCRIPT_ID.eq(script))
+                .orderBy(RUN.STARTED_AT.desc()).limit(RECENT_RUNS).fetch(RUN.ID);
     }
 
     private Double twin(long source, long target, long script, String evidence, Instant asOf) {

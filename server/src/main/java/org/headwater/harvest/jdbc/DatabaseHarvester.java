@@ -190,6 +190,7 @@ public final class DatabaseHarvester {
             note(uri, r.comment(), notes.get(uri)).ifPresent(datasets::add);
             pass.relations++;
             progress.filesSeen(pass.relations);
+            journal.seen(pass.harvestId, pass.relations);
             if (r.kind() != DatasetKind.VIEW) {
                 continue;
             }
