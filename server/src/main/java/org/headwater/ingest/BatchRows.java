@@ -42,6 +42,8 @@ final class BatchRows {
     private final Tx tx;
     private boolean active;
     private final Map<String, DatasetRecord> datasets = new HashMap<>();
+    /** Every URI the run looked up: one missing from {@link #datasets} is known to have no identity row. */
+    private final Set<String> loadedUris = new HashSet<>();
     /** Identities inserted for this run whose "created" change is due when their first observation applies. */
     private final Set<String> createdPending = new HashSet<>();
     private final Map<Long, DatasetStateRecord> states = new HashMap<>();
@@ -53,7 +55,8 @@ final class BatchRows {
     private final List<DatasetStateRecord> stateInserts = new ArrayList<>();
     private final List<Long> schemaCloses = new ArrayList<>();
     private final List<SchemaVersionRecord> schemaInserts = new ArrayList<>();
-    private final Map<SchemaVersionRecord, List<ColumnDef>> schemaColumns = new LinkedHashMap<>();
+    /** The columns of each new version, in the order of {@link #schemaInserts}. */
+    private final List<List<ColumnDef>> schemaColumns = new ArrayList<>();
     private final List<Long> partitionCloses = new ArrayList<>();
     private final List<DatasetPartitionRecord> partitionInserts = new ArrayList<>();
 
@@ -76,22 +79,27 @@ final class BatchRows {
      * their first observation, so ids come out as they would one by one).
      */
     void load(List<? extends Observation> run) {
+        // Identities are created by the first observation that sees the URI, in that order; a "gone" only looks.
         Map<String, Observation> firstByUri = new LinkedHashMap<>();
+        Set<String> uris = new HashSet<>();
         Set<String> partitionUris = new HashSet<>();
         for (Observation o : run) {
             if (o instanceof DatasetSeen s) {
                 firstByUri.putIfAbsent(s.uri(), o);
+                uris.add(s.uri());
             } else if (o instanceof DatasetGone g) {
-                firstByUri.putIfAbsent(g.uri(), o);
+                uris.add(g.uri());
             } else if (o instanceof PartitionSeen p) {
                 firstByUri.putIfAbsent(p.setUri(), o);
+                uris.add(p.setUri());
                 partitionUris.add(p.uri());
             } else if (o instanceof PartitionGone g) {
-                firstByUri.putIfAbsent(g.setUri(), o);
+                uris.add(g.setUri());
                 partitionUris.add(g.uri());
             }
         }
-        for (List<String> chunk : chunks(new ArrayList<>(firstByUri.keySet()))) {
+        loadedUris.addAll(uris);
+        for (List<String> chunk : chunks(new ArrayList<>(uris))) {
             for (DatasetRecord d : tx.db.selectFrom(DATASET).where(DATASET.URI.in(chunk)).fetch()) {
                 datasets.put(d.getUri(), d);
             }
@@ -125,7 +133,6 @@ final class BatchRows {
         active = true;
     }
 
-    // Only observations that create an identity one by one do so here: a "gone" for an unknown URI does not.
     private void createIdentities(Map<String, Observation> firstByUri) {
         List<DatasetRecord> fresh = new ArrayList<>();
         for (Map.Entry<String, Observation> e : firstByUri.entrySet()) {
@@ -141,8 +148,6 @@ final class BatchRows {
                 d.setName(p.setName());
                 d.setKind(DatasetKind.FILE_SET.word());
                 d.setSourceId(p.sourceId());
-            } else {
-                continue;
             }
             d.setUri(e.getKey());
             d.setFirstSeen(tx.now);
@@ -152,9 +157,9 @@ final class BatchRows {
             return;
         }
         tx.db.batchInsert(fresh).execute();
-        List<String> uris = new ArrayList<>();
-        fresh.forEach(d -> uris.add(d.getUri()));
-        for (List<String> chunk : chunks(uris)) {
+        List<String> freshUris = new ArrayList<>();
+        fresh.forEach(d -> freshUris.add(d.getUri()));
+        for (List<String> chunk : chunks(freshUris)) {
             for (DatasetRecord d : tx.db.selectFrom(DATASET).where(DATASET.URI.in(chunk)).fetch()) {
                 datasets.put(d.getUri(), d);
                 createdPending.add(d.getUri());
@@ -169,7 +174,7 @@ final class BatchRows {
 
     /** Whether the run loaded this URI, so that {@link #dataset} is the whole truth about it. */
     boolean loaded(String uri) {
-        return active && datasets.containsKey(uri) || active && createdPending.contains(uri);
+        return active && (datasets.containsKey(uri) || loadedUris.contains(uri));
     }
 
     /** Takes the identity inserted for this URI at load, once: the caller logs its creation. */
@@ -209,7 +214,7 @@ final class BatchRows {
 
     void insertSchema(SchemaVersionRecord row, List<ColumnDef> columns) {
         schemaInserts.add(row);
-        schemaColumns.put(row, columns);
+        schemaColumns.add(columns);
         schemas.put(row.getDatasetId(), row);
     }
 
@@ -250,6 +255,7 @@ final class BatchRows {
         }
         writeSchemas();
         datasets.clear();
+        loadedUris.clear();
         createdPending.clear();
         states.clear();
         schemas.clear();
@@ -276,9 +282,10 @@ final class BatchRows {
                     .forEach(r -> ids.put(r.value2() + "/" + r.value3(), r.value1()));
         }
         List<SchemaColumnRecord> columns = new ArrayList<>();
-        for (Map.Entry<SchemaVersionRecord, List<ColumnDef>> e : schemaColumns.entrySet()) {
-            long versionId = ids.get(e.getKey().getDatasetId() + "/" + e.getKey().getVersion());
-            List<ColumnDef> defs = e.getValue();
+        for (int v = 0; v < schemaInserts.size(); v++) {
+            SchemaVersionRecord version = schemaInserts.get(v);
+            long versionId = ids.get(version.getDatasetId() + "/" + version.getVersion());
+            List<ColumnDef> defs = schemaColumns.get(v);
             for (int i = 0; i < defs.size(); i++) {
                 SchemaColumnRecord c = tx.db.newRecord(SCHEMA_COLUMN);
                 c.setSchemaVersionId(versionId);
