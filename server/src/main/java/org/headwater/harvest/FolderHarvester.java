@@ -296,44 +296,64 @@ public final class FolderHarvester {
             flush();
         }
 
+        /**
+         * Reads the files a chunk at a time and applies each chunk as one batch. The next chunk is already
+         * being read while one is applied, so the readers do not wait for the store; at most two chunks of
+         * facts are held at once.
+         */
         void process(List<StoredObject> files, ExecutorService pool) throws IOException {
             Map<String, Placement> placements = group(files);
-            for (int from = 0; from < files.size(); from += options.batchSize()) {
-                List<StoredObject> chunk = files.subList(from, Math.min(files.size(), from + options.batchSize()));
-                List<Future<Facts>> reading = new ArrayList<>();
-                List<StoredObject> toRead = new ArrayList<>();
-                for (StoredObject f : chunk) {
-                    filesSeen++;
-                    Placement placement = placements.get(f.name());
-                    FileRole role = org.headwater.model.Language.ofFileName(f.fileName()).isPresent()
-                            ? FileRole.SCRIPT : placement != null ? FileRole.PARTITION : FileRole.DATASET;
-                    String uri = f.uri();
-                    seen.get(role).add(uri);
-                    if (role == FileRole.SCRIPT) {
-                        scripts++;
-                    } else if (role == FileRole.DATASET) {
-                        datasets++;
-                    }
-                    KnownFile before = known.get(uri);
-                    if (!options.full() && before != null && before.role() == role && unchanged(before, f)) {
-                        unchanged++;
-                        continue;
-                    }
-                    toRead.add(f);
-                    reading.add(pool.submit(() -> inspector.inspect(backend, f)));
-                }
-                for (int i = 0; i < toRead.size(); i++) {
-                    StoredObject f = toRead.get(i);
-                    Facts facts = await(reading.get(i));
+            Chunk next = submit(files, 0, placements, pool);
+            while (next != null) {
+                Chunk current = next;
+                next = submit(files, current.end(), placements, pool);
+                for (int i = 0; i < current.toRead().size(); i++) {
+                    StoredObject f = current.toRead().get(i);
+                    Facts facts = await(current.reading().get(i));
                     if (facts.errorKind() != null) {
                         error(f.uri(), facts.errorKind(), facts.errorMessage());
                     }
                     add(observation(f, facts, placements.get(f.name())));
                 }
-                progress.filesSeen(filesSeen);
-                journal.seen(harvestId, filesSeen);
+                progress.filesSeen(current.filesSeen());
+                journal.seen(harvestId, current.filesSeen());
                 flush();
             }
+        }
+
+        /** The files of one chunk being read, and how far the listing goes once it is counted. */
+        private record Chunk(List<StoredObject> toRead, List<Future<Facts>> reading, int end, int filesSeen) {
+        }
+
+        private Chunk submit(List<StoredObject> files, int from, Map<String, Placement> placements,
+                ExecutorService pool) {
+            if (from >= files.size()) {
+                return null;
+            }
+            int end = Math.min(files.size(), from + options.batchSize());
+            List<Future<Facts>> reading = new ArrayList<>();
+            List<StoredObject> toRead = new ArrayList<>();
+            for (StoredObject f : files.subList(from, end)) {
+                filesSeen++;
+                Placement placement = placements.get(f.name());
+                FileRole role = org.headwater.model.Language.ofFileName(f.fileName()).isPresent()
+                        ? FileRole.SCRIPT : placement != null ? FileRole.PARTITION : FileRole.DATASET;
+                String uri = f.uri();
+                seen.get(role).add(uri);
+                if (role == FileRole.SCRIPT) {
+                    scripts++;
+                } else if (role == FileRole.DATASET) {
+                    datasets++;
+                }
+                KnownFile before = known.get(uri);
+                if (!options.full() && before != null && before.role() == role && unchanged(before, f)) {
+                    unchanged++;
+                    continue;
+                }
+                toRead.add(f);
+                reading.add(pool.submit(() -> inspector.inspect(backend, f)));
+            }
+            return new Chunk(toRead, reading, end, filesSeen);
         }
 
         /** Files that share a partition pattern with at least one other file, by name. */

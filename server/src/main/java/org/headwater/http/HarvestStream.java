@@ -97,7 +97,11 @@ final class HarvestStream implements AutoCloseable {
                 }
             });
             case HarvestEvent.FINISHED -> sender.execute(() -> {
-                pendingProgress.remove(event.harvestId());
+                // A harvest shorter than one progress period still tells its last count before its outcome.
+                HarvestEvent last = pendingProgress.remove(event.harvestId());
+                if (last != null) {
+                    broadcast(last.type(), last);
+                }
                 errorsSent.remove(event.harvestId());
                 broadcast(event.type(), event);
             });

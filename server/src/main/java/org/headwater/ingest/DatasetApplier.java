@@ -2,7 +2,6 @@ package org.headwater.ingest;
 
 import static org.headwater.store.schema.Tables.DATASET;
 import static org.headwater.store.schema.Tables.DATASET_STATE;
-import static org.headwater.store.schema.Tables.SCHEMA_COLUMN;
 import static org.headwater.store.schema.Tables.SCHEMA_VERSION;
 
 import java.time.Instant;
@@ -22,6 +21,7 @@ import org.headwater.store.schema.tables.records.SchemaVersionRecord;
 /** Applies what was seen of datasets: identity, physical state and column structure, each with history. */
 final class DatasetApplier {
 
+    // DatasetSeen and DatasetGone always apply inside a run of BatchRows, so their rows come from there.
     void apply(Tx tx, DatasetSeen seen) {
         long id = identity(tx, seen.uri(), seen.name(), seen.kind(), seen.sourceId());
         applyState(tx, id, seen);
@@ -29,36 +29,54 @@ final class DatasetApplier {
     }
 
     void apply(Tx tx, DatasetGone gone) {
-        DatasetRecord dataset = tx.db.selectFrom(DATASET).where(DATASET.URI.eq(gone.uri())).fetchOne();
+        DatasetRecord dataset = tx.rows.dataset(gone.uri());
         if (dataset == null) {
             return;
         }
-        int closedStates = tx.db.update(DATASET_STATE).set(DATASET_STATE.VALID_TO, tx.now)
-                .where(DATASET_STATE.DATASET_ID.eq(dataset.getId()), DATASET_STATE.VALID_TO.isNull())
-                .execute();
-        tx.db.update(SCHEMA_VERSION).set(SCHEMA_VERSION.VALID_TO, tx.now)
-                .where(SCHEMA_VERSION.DATASET_ID.eq(dataset.getId()), SCHEMA_VERSION.VALID_TO.isNull())
-                .execute();
+        DatasetStateRecord state = tx.rows.state(dataset.getId());
+        if (state != null) {
+            tx.rows.closeState(state);
+        }
+        SchemaVersionRecord schema = tx.rows.schema(dataset.getId());
+        if (schema != null) {
+            tx.rows.closeSchema(schema);
+        }
         // A check says how fresh something is that exists; its last state stays as history. The policy
-        // stays current, so a dataset that comes back is held to it again.
+        // stays current, so a dataset that comes back is held to it again. (Not a batched table: checks are
+        // not read by the harvest's batch.)
         tx.db.update(org.headwater.store.schema.Tables.FRESHNESS_CHECK)
                 .set(org.headwater.store.schema.Tables.FRESHNESS_CHECK.VALID_TO, tx.now)
                 .where(org.headwater.store.schema.Tables.FRESHNESS_CHECK.DATASET_ID.eq(dataset.getId()),
                         org.headwater.store.schema.Tables.FRESHNESS_CHECK.VALID_TO.isNull())
                 .execute();
-        if (closedStates > 0) {
+        if (state != null) {
             tx.changed(Change.DATASET, dataset.getId(), "removed", dataset.getName());
         }
     }
 
     /** The id of a dataset by URI, or null. */
     static Long find(Tx tx, String uri) {
+        if (tx.rows.loaded(uri)) {
+            DatasetRecord d = tx.rows.dataset(uri);
+            return d == null ? null : d.getId();
+        }
         return tx.db.select(DATASET.ID).from(DATASET).where(DATASET.URI.eq(uri)).fetchOne(DATASET.ID);
     }
 
     /** Finds or creates the dataset's identity row; only the name and kind may be corrected later. */
     static long identity(Tx tx, String uri, String name, DatasetKind kind, Long sourceId) {
-        DatasetRecord existing = tx.db.selectFrom(DATASET).where(DATASET.URI.eq(uri)).fetchOne();
+        DatasetRecord existing;
+        if (tx.rows.loaded(uri)) {
+            DatasetRecord created = tx.rows.takeCreated(uri);
+            if (created != null) {
+                // Inserted when the run was loaded, from this very observation (the URI's first).
+                tx.changed(Change.DATASET, created.getId(), "created", name);
+                return created.getId();
+            }
+            existing = tx.rows.dataset(uri);
+        } else {
+            existing = tx.db.selectFrom(DATASET).where(DATASET.URI.eq(uri)).fetchOne();
+        }
         if (existing == null) {
             long id = tx.db.insertInto(DATASET)
                     .set(DATASET.URI, uri)
@@ -89,28 +107,26 @@ final class DatasetApplier {
 
     private void applyState(Tx tx, long id, DatasetSeen seen) {
         OffsetDateTime modified = toStoredTime(seen.modifiedAt());
-        DatasetStateRecord current = tx.db.selectFrom(DATASET_STATE)
-                .where(DATASET_STATE.DATASET_ID.eq(id), DATASET_STATE.VALID_TO.isNull())
-                .fetchOne();
+        DatasetStateRecord current = tx.rows.state(id);
         if (current != null && sameState(current, seen, modified)) {
             return;
         }
         if (current != null) {
-            current.setValidTo(tx.now);
-            current.update();
+            tx.rows.closeState(current);
         }
-        tx.db.insertInto(DATASET_STATE)
-                .set(DATASET_STATE.DATASET_ID, id)
-                .set(DATASET_STATE.VALID_FROM, tx.now)
-                .set(DATASET_STATE.FORMAT, seen.format())
-                .set(DATASET_STATE.SIZE_BYTES, seen.sizeBytes())
-                .set(DATASET_STATE.MODIFIED_AT, modified)
-                .set(DATASET_STATE.CONTENT_HASH, seen.contentHash())
-                .set(DATASET_STATE.ROW_COUNT, seen.rowCount())
-                .set(DATASET_STATE.ROW_COUNT_EXACT, seen.rowCountExact())
-                .set(DATASET_STATE.DETAILS, seen.details())
-                .set(DATASET_STATE.ERROR, seen.error() == null ? null : Tx.truncate(seen.error(), 4000))
-                .execute();
+        DatasetStateRecord row = tx.db.newRecord(DATASET_STATE);
+        row.setDatasetId(id);
+        row.setValidFrom(tx.now);
+        row.setValidTo(null);
+        row.setFormat(seen.format());
+        row.setSizeBytes(seen.sizeBytes());
+        row.setModifiedAt(modified);
+        row.setContentHash(seen.contentHash());
+        row.setRowCount(seen.rowCount());
+        row.setRowCountExact(seen.rowCountExact());
+        row.setDetails(seen.details());
+        row.setError(seen.error() == null ? null : Tx.truncate(seen.error(), 4000));
+        tx.rows.insertState(row);
         tx.changed(Change.DATASET, id, "state", seen.name());
     }
 
@@ -126,40 +142,26 @@ final class DatasetApplier {
     }
 
     private void applySchema(Tx tx, long id, List<ColumnDef> columns) {
-        SchemaVersionRecord current = tx.db.selectFrom(SCHEMA_VERSION)
-                .where(SCHEMA_VERSION.DATASET_ID.eq(id), SCHEMA_VERSION.VALID_TO.isNull())
-                .fetchOne();
+        SchemaVersionRecord current = tx.rows.schema(id);
         String fingerprint = columns == null ? null : SchemaFingerprint.of(columns);
         if (current == null ? columns == null : current.getFingerprint().equals(fingerprint)) {
             return;
         }
         if (current != null) {
-            current.setValidTo(tx.now);
-            current.update();
+            tx.rows.closeSchema(current);
         }
         if (columns == null) {
             tx.changed(Change.DATASET, id, "schema", "no columns");
             return;
         }
-        Integer last = tx.db.select(org.jooq.impl.DSL.max(SCHEMA_VERSION.VERSION)).from(SCHEMA_VERSION)
-                .where(SCHEMA_VERSION.DATASET_ID.eq(id)).fetchOne(0, Integer.class);
-        int version = last == null ? 1 : last + 1;
-        long versionId = tx.db.insertInto(SCHEMA_VERSION)
-                .set(SCHEMA_VERSION.DATASET_ID, id)
-                .set(SCHEMA_VERSION.VERSION, version)
-                .set(SCHEMA_VERSION.FINGERPRINT, fingerprint)
-                .set(SCHEMA_VERSION.VALID_FROM, tx.now)
-                .returningResult(SCHEMA_VERSION.ID)
-                .fetchOne(SCHEMA_VERSION.ID);
-        var insert = tx.db.insertInto(SCHEMA_COLUMN, SCHEMA_COLUMN.SCHEMA_VERSION_ID, SCHEMA_COLUMN.ORDINAL,
-                SCHEMA_COLUMN.NAME, SCHEMA_COLUMN.DATA_TYPE, SCHEMA_COLUMN.NULLABLE);
-        for (int i = 0; i < columns.size(); i++) {
-            ColumnDef c = columns.get(i);
-            insert = insert.values(versionId, i + 1, c.name(), c.dataType(), c.nullable());
-        }
-        if (!columns.isEmpty()) {
-            insert.execute();
-        }
+        int version = tx.rows.nextVersion(id);
+        SchemaVersionRecord row = tx.db.newRecord(SCHEMA_VERSION);
+        row.setDatasetId(id);
+        row.setVersion(version);
+        row.setFingerprint(fingerprint);
+        row.setValidFrom(tx.now);
+        row.setValidTo(null);
+        tx.rows.insertSchema(row, columns);
         tx.changed(Change.DATASET, id, "schema", "version " + version + ", " + columns.size() + " columns");
     }
 

@@ -68,9 +68,26 @@ public final class Ingestor {
             OffsetDateTime now = OffsetDateTime.ofInstant(clock.instant().truncatedTo(ChronoUnit.MICROS),
                     ZoneOffset.UTC);
             Tx tx = new Tx(configuration.dsl(), now, origin);
-            for (Observation observation : batch) {
-                dispatch(tx, observation);
+            for (int from = 0; from < batch.size(); ) {
+                int to = from;
+                while (to < batch.size() && BatchRows.covers(batch.get(to))) {
+                    to++;
+                }
+                if (to == from) {
+                    dispatch(tx, batch.get(from++));
+                    continue;
+                }
+                // A run of dataset and partition observations reads its rows at once and writes them at once;
+                // the other appliers, which read those tables themselves, see them written.
+                List<? extends Observation> run = batch.subList(from, to);
+                tx.rows.load(run);
+                for (Observation observation : run) {
+                    dispatch(tx, observation);
+                }
+                tx.rows.flush();
+                from = to;
             }
+            tx.writeChanges();
             return List.copyOf(tx.changes());
         });
         notifyListeners(changes);

@@ -19,4 +19,16 @@ class ScriptLineageTest {
         assertThat(ScriptLineage.uniqueSuffixMatch(NAMES, "levels.csv")).isNull(); // two candidates: no guess
         assertThat(ScriptLineage.uniqueSuffixMatch(NAMES, "other.csv")).isNull();
     }
+
+    @Test
+    void theSuffixIndexAnswersAsTheScanOverAllNames() {
+        // expected: the same answers as the plain scan above, for every ending of every name and a few misses
+        ScriptLineage.SuffixIndex index = new ScriptLineage.SuffixIndex(NAMES);
+        for (String path : java.util.List.of("raw/flows.csv", "../raw/flows.csv", "../../raw/levels.csv", "levels.csv",
+                "flows.csv", "lab/raw/flows.csv", "w/lab/raw/flows.csv", "aw/flows.csv", "other.csv", "field/levels.csv")) {
+            assertThat(index.uniqueMatch(path)).as(path).isEqualTo(ScriptLineage.uniqueSuffixMatch(NAMES, path));
+        }
+        assertThat(index.uniqueMatch("aw/flows.csv")).isNull(); // a match must start at a folder boundary
+        assertThat(index.uniqueMatch("flows.csv")).isEqualTo("file:///w/lab/raw/flows.csv");
+    }
 }
