@@ -254,10 +254,16 @@ class HarvestStreamTest {
     /** A progress listener that waits after each file, as a slow disk would. */
     static HarvestProgress slow(long millisPerFile) {
         return new HarvestProgress() {
+            private int before;
+
             @Override
             public void filesSeen(int count) {
+                // Called once per batch of files: the pause grows with the files the batch holds, so the
+                // harvest lasts about millisPerFile per file however fast the ingestion path applies them.
+                long pause = millisPerFile * Math.max(0, count - before);
+                before = count;
                 try {
-                    Thread.sleep(millisPerFile);
+                    Thread.sleep(pause);
                 } catch (InterruptedException e) {
                     Thread.currentThread().interrupt();
                 }

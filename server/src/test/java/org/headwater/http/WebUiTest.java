@@ -311,14 +311,15 @@ class WebUiTest {
 
     @Test
     void theHarvestsPageCountsUpWhileAHarvestRuns() throws Exception {
-        Path notes = HarvestStreamTest.fieldNotes(temp.resolve("chromium-notes"), 300, temp.resolve("chromium-outside.csv"));
+        Path notes = HarvestStreamTest.fieldNotes(temp.resolve("chromium-notes"), 600, temp.resolve("chromium-outside.csv"));
         open("#/harvests");
         new WebDriverWait(driver, Duration.ofSeconds(10)).until(d -> d.findElement(By.id("harvest-note")).getText().contains("as they happen"));
         var result = new java.util.concurrent.CompletableFuture<org.headwater.harvest.HarvestSummary>();
         Thread harvest = new Thread(() -> {
             try {
-                // a slow disk: 10 ms per file, so the harvest lasts a few seconds whatever the machine
-                result.complete(catalog.harvestFolder(notes, false, HarvestStreamTest.slow(10)));
+                // a slow disk: 5 ms per file, so the harvest lasts a few seconds whatever the machine; 600 files make
+                // three batches of the default size, so the page has counts to show between start and end
+                result.complete(catalog.harvestFolder(notes, false, HarvestStreamTest.slow(5)));
             } catch (Throwable t) {
                 result.completeExceptionally(t);
             }
@@ -338,8 +339,8 @@ class WebUiTest {
         var summary = result.get();
         // the page showed several counts while the harvest ran: it followed the stream, not one reload
         assertThat(counts.size()).as("counts seen while running: " + counts).isGreaterThanOrEqualTo(3);
-        assertThat(counts).allMatch(n -> n <= 300);
-        // when it ends, the row shows the stored outcome: 300 files seen (the link is refused, not seen)
+        assertThat(counts).allMatch(n -> n <= 600);
+        // when it ends, the row shows the stored outcome: 600 files seen (the link is refused, not seen)
         new WebDriverWait(driver, Duration.ofSeconds(10)).until(d -> d.findElements(By.cssSelector(".harvest-live")).isEmpty());
         List<String> first = new ArrayList<>();
         for (Object c : (List<?>) js("return [...document.querySelectorAll('#harvest-list tbody tr:first-child td')].map(e => e.textContent);")) {
@@ -347,7 +348,7 @@ class WebUiTest {
         }
         assertThat(first.get(0)).isEqualTo(summary.source());
         assertThat(first.get(3)).isEqualTo(summary.status());
-        assertThat(first.get(4)).isEqualTo("300");
+        assertThat(first.get(4)).isEqualTo("600");
         shoot("25-harvests-after-live");
         noConsoleErrors("harvests");
     }
