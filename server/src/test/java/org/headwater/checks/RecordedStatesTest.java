@@ -22,13 +22,8 @@ class RecordedStatesTest {
 
     @Test
     void theFreshnessFacetShowsRecordedStatesAndFollowsANewCheck() throws Exception {
-        Path lake = Files.createDirectories(temp.resolve("apiary"));
+        Path lake = apiary();
         Path comb = lake.resolve("comb_weights.csv");
-        Files.writeString(comb, "hive,kg\nH1,2.5\n");
-        Files.writeString(lake.resolve("queen_marks.csv"), "hive,colour\nH1,blue\n");
-        // Ten days old against a one-day limit: late (README, Freshness: "late when older than the max age").
-        Files.setLastModifiedTime(comb, FileTime.from(Instant.now().minus(Duration.ofDays(10))));
-        Files.writeString(lake.resolve(".headwater-freshness"), "comb_weights.csv  max-age 1d\n");
         try (Catalog catalog = TestCatalogs.fresh(temp.resolve("catalog"))) {
             catalog.harvestFolder(lake, false, HarvestProgress.NONE);
             SearchRequest hives = SearchRequest.of("hive", null, 10);
@@ -50,12 +45,8 @@ class RecordedStatesTest {
 
     @Test
     void aRemovedDatasetsCheckEndsWithItAndStaysInItsHistory() throws Exception {
-        Path lake = Files.createDirectories(temp.resolve("apiary"));
+        Path lake = apiary();
         Path comb = lake.resolve("comb_weights.csv");
-        Files.writeString(comb, "hive,kg\nH1,2.5\n");
-        Files.writeString(lake.resolve("queen_marks.csv"), "hive,colour\nH1,blue\n");
-        Files.setLastModifiedTime(comb, FileTime.from(Instant.now().minus(Duration.ofDays(10))));
-        Files.writeString(lake.resolve(".headwater-freshness"), "comb_weights.csv  max-age 1d\n");
         try (Catalog catalog = TestCatalogs.fresh(temp.resolve("catalog"))) {
             catalog.harvestFolder(lake, false, HarvestProgress.NONE);
             catalog.freshness().record();
@@ -76,5 +67,19 @@ class RecordedStatesTest {
             assertThat(catalog.index().search(SearchRequest.of("hive", null, 10)).facets().get("freshness"))
                     .isEqualTo(Map.of("unknown", 1));
         }
+    }
+
+    /**
+     * Two hive files; comb_weights.csv is ten days old against a one-day limit, so late once checked
+     * (README, Freshness: "late when older than the max age").
+     */
+    private Path apiary() throws Exception {
+        Path lake = Files.createDirectories(temp.resolve("apiary"));
+        Path comb = lake.resolve("comb_weights.csv");
+        Files.writeString(comb, "hive,kg\nH1,2.5\n");
+        Files.writeString(lake.resolve("queen_marks.csv"), "hive,colour\nH1,blue\n");
+        Files.setLastModifiedTime(comb, FileTime.from(Instant.now().minus(Duration.ofDays(10))));
+        Files.writeString(lake.resolve(".headwater-freshness"), "comb_weights.csv  max-age 1d\n");
+        return lake;
     }
 }

@@ -47,15 +47,7 @@ public final class SourceSchedule implements AutoCloseable {
                 continue;
             }
             long seconds = spec.every().map(Duration::toSeconds).orElseThrow();
-            timer.scheduleWithFixedDelay(() -> {
-                try {
-                    report.accept(runner.run(spec, false, HarvestProgress.NONE));
-                } catch (RuntimeException e) {
-                    // A scheduled task that throws is never run again; a bad run must not end the schedule.
-                    report.accept(new SourceRunner.Outcome(spec.name(), spec.kind(), "failed", null, null,
-                            String.valueOf(e.getMessage())));
-                }
-            }, seconds, seconds, TimeUnit.SECONDS);
+            timer.scheduleWithFixedDelay(() -> harvest(spec, false), seconds, seconds, TimeUnit.SECONDS);
             scheduled++;
         }
         return scheduled;
@@ -85,15 +77,22 @@ public final class SourceSchedule implements AutoCloseable {
         }
         timer.execute(() -> {
             try {
-                report.accept(runner.run(spec, full, HarvestProgress.NONE));
-            } catch (RuntimeException e) {
-                report.accept(new SourceRunner.Outcome(spec.name(), spec.kind(), "failed", null, null,
-                        String.valueOf(e.getMessage())));
+                harvest(spec, full);
             } finally {
                 requested.remove(source);
             }
         });
         return Request.QUEUED;
+    }
+
+    /** Runs one harvest and reports it; never throws, since a scheduled task that throws never runs again. */
+    private void harvest(SourceSpec spec, boolean full) {
+        try {
+            report.accept(runner.run(spec, full, HarvestProgress.NONE));
+        } catch (RuntimeException e) {
+            report.accept(new SourceRunner.Outcome(spec.name(), spec.kind(), "failed", null, null,
+                    String.valueOf(e.getMessage())));
+        }
     }
 
     /** Stops scheduling and waits (up to 30 s) for a running harvest to end its transaction. */
