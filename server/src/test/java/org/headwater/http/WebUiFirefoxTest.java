@@ -16,11 +16,8 @@ import java.util.Set;
 import java.util.TreeSet;
 import javax.imageio.ImageIO;
 import org.headwater.Catalog;
-import org.headwater.harvest.HarvestProgress;
-import org.headwater.ingest.Observation;
 import org.headwater.testing.Firefox;
 import org.headwater.testing.Firefox.Node;
-import org.headwater.testing.TestCatalogs;
 import org.headwater.testing.Workspaces;
 import org.junit.jupiter.api.AfterAll;
 import org.junit.jupiter.api.Assumptions;
@@ -46,14 +43,7 @@ class WebUiFirefoxTest {
     @BeforeAll
     static void start() throws IOException {
         firefox = Firefox.start();
-        catalog = TestCatalogs.fresh(temp.resolve("catalog"));
-        catalog.harvestFolder(Workspaces.demo(), false, HarvestProgress.NONE);
-        catalog.harvestFolder(WebUiTest.hostileFolder(temp.resolve("hostile")), false, HarvestProgress.NONE);
-        String uri = temp.resolve("hostile").resolve(WebUiTest.HOSTILE_FILE).toAbsolutePath().normalize().toUri().toString();
-        String flag = "window.__hwPwned";
-        catalog.ingestor().apply("api", List.of(new Observation.NoteSet(uri,
-                "<a href=\"javascript:" + flag + "=5\">see</a><img src=x onerror=\"" + flag + "=6\"><script>" + flag + "=7</script>",
-                Set.of("javascript:" + flag + "=8"), "test")));
+        catalog = WebUiTest.hostileDemo(temp);
         server = ApiServer.start(catalog, "127.0.0.1", 0);
         base = server.url();
     }
@@ -211,7 +201,7 @@ class WebUiFirefoxTest {
         open("#/dataset/" + id);
         firefox.waitFor(".title-name");
         assertThat(text(".title-name")).isEqualTo(WebUiTest.HOSTILE_FILE);
-        String flag = "window.__hwPwned";
+        String flag = WebUiTest.FLAG;
         assertThat(texts("#columns tbody tr td:nth-child(2)")).containsExactly(
                 "<script>" + flag + "=2</script>", "<img src=x onerror=" + flag + "=3>", "javascript:" + flag + "=4");
         assertThat(firefox.nodes("main img[src='x'], main script, main b")).isEmpty();
@@ -361,7 +351,7 @@ class WebUiFirefoxTest {
 
     void assertInert() {
         pause();
-        assertThat(firefox.call("return typeof window.__hwPwned;")).as("a payload ran").isEqualTo("undefined");
+        assertThat(firefox.call("return typeof " + WebUiTest.FLAG + ";")).as("a payload ran").isEqualTo("undefined");
         assertThat(firefox.prompts()).as("a dialog opened").isEmpty();
     }
 

@@ -47,7 +47,7 @@ import org.openqa.selenium.support.ui.WebDriverWait;
  */
 class WebUiTest {
     /** What the hostile payloads would set if any of them ran. */
-    private static final String FLAG = "window.__hwPwned";
+    static final String FLAG = "window.__hwPwned";
 
     @TempDir
     static Path temp;
@@ -63,13 +63,7 @@ class WebUiTest {
     static void start() throws IOException {
         browser = Browser.start();
         driver = browser.driver();
-        catalog = TestCatalogs.fresh(temp.resolve("catalog"));
-        catalog.harvestFolder(Workspaces.demo(), false, HarvestProgress.NONE);
-        catalog.harvestFolder(hostileFolder(temp.resolve("hostile")), false, HarvestProgress.NONE);
-        String uri = temp.resolve("hostile").resolve(HOSTILE_FILE).toAbsolutePath().normalize().toUri().toString();
-        catalog.ingestor().apply("api", List.of(new Observation.NoteSet(uri,
-                "<a href=\"javascript:" + FLAG + "=5\">see</a><img src=x onerror=\"" + FLAG + "=6\"><script>" + FLAG + "=7</script>",
-                Set.of("javascript:" + FLAG + "=8", "<b onmouseover=" + FLAG + "=9>tag</b>"), "test")));
+        catalog = hostileDemo(temp);
         server = ApiServer.start(catalog, "127.0.0.1", 0);
         base = server.url();
     }
@@ -95,6 +89,21 @@ class WebUiTest {
             + " return label.right > end; }).map(g => g.querySelector('title').textContent);";
 
     static final String HOSTILE_FILE = "<img src=x onerror=" + FLAG + "=1>.csv";
+
+    /**
+     * The demo catalog (in {@code dir/catalog}) plus {@link #hostileFolder}, whose dataset also gets a
+     * description and tags carrying payloads: what both browsers' tests serve.
+     */
+    static Catalog hostileDemo(Path dir) throws IOException {
+        Catalog catalog = TestCatalogs.fresh(dir.resolve("catalog"));
+        catalog.harvestFolder(Workspaces.demo(), false, HarvestProgress.NONE);
+        catalog.harvestFolder(hostileFolder(dir.resolve("hostile")), false, HarvestProgress.NONE);
+        String uri = dir.resolve("hostile").resolve(HOSTILE_FILE).toAbsolutePath().normalize().toUri().toString();
+        catalog.ingestor().apply("api", List.of(new Observation.NoteSet(uri,
+                "<a href=\"javascript:" + FLAG + "=5\">see</a><img src=x onerror=\"" + FLAG + "=6\"><script>" + FLAG + "=7</script>",
+                Set.of("javascript:" + FLAG + "=8", "<b onmouseover=" + FLAG + "=9>tag</b>"), "test")));
+        return catalog;
+    }
 
     /** A workspace whose file name, column names and script paths carry script payloads. */
     static Path hostileFolder(Path dir) throws IOException {
