@@ -13,6 +13,8 @@ import os
 import random
 import sys
 
+from sniffer_baseline import sniffer_answer
+
 FIRST = ["Aru", "Bexa", "Corin", "Dalmo", "Esk", "Fenna", "Gorm", "Hild", "Ivo", "Juno"]
 ACCENTED = ["Zoë", "Ãngel", "Brûlé", "Çelik", "Dømi", "Émile", "Fjóla", "Göran", "Hélo", "Iñaki"]
 WORDS = ["upper reach", "weir", "north bank", "culvert", "spring", "pool 3", "side arm", "ford", "delta flat",
@@ -95,29 +97,6 @@ def one(rng, n, out_dir):
                     for i in range(len(kinds))],
         "row_count": rows_n,
     }, text
-
-
-def sniffer_answer(text):
-    sample = text[:65536]
-    try:
-        dialect = csv.Sniffer().sniff(sample)
-    except csv.Error as e:
-        return {"error": str(e)}
-    try:
-        has_header = csv.Sniffer().has_header(sample)
-    except csv.Error:
-        has_header = None
-    rows = list(csv.reader(io.StringIO(text, newline=""), dialect))
-    rows = [r for r in rows if r]
-    return {
-        "delimiter": dialect.delimiter,
-        "quote": dialect.quotechar,
-        "escape": "backslash" if dialect.escapechar == "\\" else "double" if dialect.doublequote else "none",
-        "header": has_header,
-        "columns": len(rows[0]) if rows else 0,
-        "names": rows[0] if rows and has_header else None,
-        "row_count": len(rows) - (1 if has_header else 0),
-    }
 
 
 def main(out_dir, count, seed):

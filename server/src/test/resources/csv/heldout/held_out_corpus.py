@@ -20,6 +20,10 @@ import os
 import random
 import sys
 
+# The shared baseline lives one folder up, beside the first corpus's generator.
+sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), ".."))
+from sniffer_baseline import sniffer_answer  # noqa: E402
+
 KEEPERS = ["Ilsa", "Moreth", "Tavi", "Quen", "Sorrel", "Vang", "Oddny", "Brisk"]
 ACCENTED = ["Zoë", "Brûlé", "Fjóla", "Göran", "Hélo", "Iñaki", "Dømi", "Ärla"]
 PLAIN = ["reed bed", "outfall", "east pond", "sluice", "marsh", "inlet 2", "weed mat", "gravel"]
@@ -331,28 +335,6 @@ def hand_files(rng, start):
         rows = plain_rows(rng, kinds, rng.randint(10, 20))
         add("very wide", "csv", [d.join(names)] + [d.join(r) for r in rows], facts(d, names, kinds, len(rows)))
     return made
-
-
-def sniffer_answer(text):
-    sample = text[:65536]
-    try:
-        dialect = csv.Sniffer().sniff(sample)
-    except csv.Error as e:
-        return {"error": str(e)}
-    try:
-        has_header = csv.Sniffer().has_header(sample)
-    except csv.Error:
-        has_header = None
-    rows = [r for r in csv.reader(io.StringIO(text, newline=""), dialect) if r]
-    return {
-        "delimiter": dialect.delimiter,
-        "quote": dialect.quotechar,
-        "escape": "backslash" if dialect.escapechar == "\\" else "double" if dialect.doublequote else "none",
-        "header": has_header,
-        "columns": len(rows[0]) if rows else 0,
-        "names": rows[0] if rows and has_header else None,
-        "row_count": len(rows) - (1 if has_header else 0),
-    }
 
 
 def decode(path, truth):
