@@ -19,6 +19,7 @@ import org.headwater.harvest.HarvestProgress;
 import org.headwater.ingest.Observation;
 import org.headwater.testing.IndexKeys;
 import org.headwater.testing.Workspaces;
+import org.headwater.testing.FlatFolders;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
@@ -76,11 +77,11 @@ class IndexStoreAgreementTest {
             junk.add(new StringField("key", "dataset:999999", Field.Store.YES));
             writer.addDocument(junk);
             writer.flush();
-            copyTree(index, image);
+            FlatFolders.copy(index, image);
             writer.rollback();
         }
-        deleteTree(index);
-        copyTree(image, index);
+        FlatFolders.delete(index);
+        FlatFolders.copy(image, index);
         try (Catalog catalog = Catalog.open(dataDir)) {
             assertThat(catalog.index().keys()).isEqualTo(expectedKeys(catalog)).doesNotContain("dataset:999999");
             assertThat(catalog.index().search("reservoir levels", null, 5)).extracting(SearchHit::name)
@@ -98,15 +99,15 @@ class IndexStoreAgreementTest {
         try (Catalog catalog = Catalog.open(dataDir)) {
             catalog.harvestFolder(lake, false, HarvestProgress.NONE);
         }
-        copyTree(dataDir.resolve("index"), stale);
+        FlatFolders.copy(dataDir.resolve("index"), stale);
         Files.delete(lake.resolve("old_gauge.csv"));
         Files.writeString(lake.resolve("new_gauge.csv"), "gauge_id,flow\nG2,7\n");
         try (Catalog catalog = Catalog.open(dataDir)) {
             catalog.harvestFolder(lake, false, HarvestProgress.NONE);
         }
         // As if the process died after the store committed and before the index did.
-        deleteTree(dataDir.resolve("index"));
-        copyTree(stale, dataDir.resolve("index"));
+        FlatFolders.delete(dataDir.resolve("index"));
+        FlatFolders.copy(stale, dataDir.resolve("index"));
         try (Catalog catalog = Catalog.open(dataDir)) {
             assertThat(catalog.index().keys()).isEqualTo(expectedKeys(catalog));
             assertThat(catalog.index().search("gauge", null, 10)).extracting(SearchHit::name)
@@ -133,23 +134,5 @@ class IndexStoreAgreementTest {
         try (Catalog catalog = Catalog.open(dataDir)) {
             assertThat(catalog.index().keys()).isEqualTo(expectedKeys(catalog)).hasSize(1 + 2);
         }
-    }
-
-    private static void copyTree(Path from, Path to) throws IOException {
-        Files.createDirectories(to);
-        try (Stream<Path> files = Files.list(from)) {
-            for (Path f : (Iterable<Path>) files::iterator) {
-                Files.copy(f, to.resolve(f.getFileName()));
-            }
-        }
-    }
-
-    private static void deleteTree(Path dir) throws IOException {
-        try (Stream<Path> files = Files.list(dir)) {
-            for (Path f : (Iterable<Path>) files::iterator) {
-                Files.delete(f);
-            }
-        }
-        Files.delete(dir);
     }
 }

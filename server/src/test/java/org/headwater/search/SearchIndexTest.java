@@ -15,6 +15,7 @@ import org.headwater.Catalog;
 import org.headwater.harvest.HarvestProgress;
 import org.headwater.testing.TestCatalogs;
 import org.headwater.testing.Workspaces;
+import org.headwater.testing.FlatFolders;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
@@ -93,37 +94,19 @@ class SearchIndexTest {
         try (Catalog catalog = TestCatalogs.reopenable(dataDir)) {
             catalog.harvestFolder(lake, false, HarvestProgress.NONE);
         }
-        copyTree(dataDir.resolve("index"), staleIndex);
+        FlatFolders.copy(dataDir.resolve("index"), staleIndex);
         Files.writeString(lake.resolve("second_reservoir.csv"), "b\n2\n");
         try (Catalog catalog = TestCatalogs.reopenable(dataDir)) {
             catalog.harvestFolder(lake, false, HarvestProgress.NONE);
         }
         // Put back the index as it was before the second harvest: the store is ahead of it now.
-        deleteTree(dataDir.resolve("index"));
-        copyTree(staleIndex, dataDir.resolve("index"));
+        FlatFolders.delete(dataDir.resolve("index"));
+        FlatFolders.copy(staleIndex, dataDir.resolve("index"));
         try (Catalog catalog = TestCatalogs.reopenable(dataDir)) {
             assertThat(catalog.index().absorbedSeq()).isEqualTo(catalog.reader().lastChangeSeq());
             assertThat(catalog.index().search("reservoir", "file", 5)).extracting(SearchHit::name)
                     .containsExactly("second_reservoir.csv");
             assertThat(catalog.index().documentCount()).isEqualTo(4); // 2 datasets and their columns a and b
         }
-    }
-
-    private static void copyTree(Path from, Path to) throws IOException {
-        Files.createDirectories(to);
-        try (Stream<Path> files = Files.list(from)) {
-            for (Path f : (Iterable<Path>) files::iterator) {
-                Files.copy(f, to.resolve(f.getFileName()));
-            }
-        }
-    }
-
-    private static void deleteTree(Path dir) throws IOException {
-        try (Stream<Path> files = Files.list(dir)) {
-            for (Path f : (Iterable<Path>) files::iterator) {
-                Files.delete(f);
-            }
-        }
-        Files.delete(dir);
     }
 }
