@@ -192,9 +192,7 @@ public final class Catalog implements AutoCloseable {
 
     /** Marks a harvest as run by the sources-file entry {@code configuredName} (see {@code HarvestJournal#runAs}). */
     public void recordRunAs(long harvestId, String configuredName) {
-        if (!configuredName.equals(reader.harvest(harvestId).map(h -> h.source()).orElse(configuredName))) {
-            journal.runAs(harvestId, configuredName);
-        }
+        journal.runAs(harvestId, configuredName);
     }
 
     public Path dataDir() {

@@ -130,7 +130,7 @@ public final class HarvestJournal {
                 now == null ? null : now.errors(), null, null, Tx.truncate(uri, 2000), kind, Tx.truncate(message == null ? kind : message, 4000)));
     }
 
-    /** Records which entry of a sources file ran the harvest, when that is not the source's own name. */
+    /** Records which entry of a sources file ran the harvest; shown in place of the source's own name. */
     public void runAs(long harvestId, String configuredName) {
         store.dsl().update(HARVEST).set(HARVEST.RUN_AS, Tx.truncate(configuredName, 200))
                 .where(HARVEST.ID.eq(harvestId)).execute();
