@@ -84,6 +84,11 @@ public final class OwnersFile {
         if (!Files.isRegularFile(file)) {
             return none();
         }
+        return readFile(file);
+    }
+
+    /** An owners file at any path, such as the one a database source names; it must exist. */
+    public static OwnersFile readFile(Path file) throws IOException {
         try {
             return parse(Files.readAllLines(file, StandardCharsets.UTF_8));
         } catch (CharacterCodingException e) {

@@ -132,7 +132,7 @@ public final class DatabaseHarvester {
                 pass.error(fileUri, "owners_file", "No owners file at " + source.ownersFile());
                 return List.of();
             }
-            file = org.headwater.owners.OwnersFile.parse(java.nio.file.Files.readAllLines(source.ownersFile()));
+            file = org.headwater.owners.OwnersFile.readFile(source.ownersFile());
         } catch (java.io.IOException e) {
             pass.error(fileUri, "owners_file", "Cannot read the owners file: " + e.getMessage());
             return List.of();
