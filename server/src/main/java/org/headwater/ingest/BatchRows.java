@@ -3,6 +3,7 @@ package org.headwater.ingest;
 import static org.headwater.store.schema.Tables.DATASET;
 import static org.headwater.store.schema.Tables.DATASET_PARTITION;
 import static org.headwater.store.schema.Tables.DATASET_STATE;
+import static org.headwater.store.schema.Tables.FRESHNESS_CHECK;
 import static org.headwater.store.schema.Tables.SCHEMA_COLUMN;
 import static org.headwater.store.schema.Tables.SCHEMA_VERSION;
 
@@ -59,6 +60,8 @@ final class BatchRows {
     private final List<List<ColumnDef>> schemaColumns = new ArrayList<>();
     private final List<Long> partitionCloses = new ArrayList<>();
     private final List<DatasetPartitionRecord> partitionInserts = new ArrayList<>();
+    /** Datasets gone in this run whose current freshness check ends with them (checks are not loaded). */
+    private final List<Long> checkEnds = new ArrayList<>();
 
     BatchRows(Tx tx) {
         this.tx = tx;
@@ -232,6 +235,14 @@ final class BatchRows {
         partitions.put(partitionKey(row.getDatasetId(), row.getUri()), row);
     }
 
+    /**
+     * Ends the current freshness check of a dataset that went away; its last state stays as history.
+     * Nothing in a run reads checks, so they are closed by dataset when the run is written.
+     */
+    void endCheck(long datasetId) {
+        checkEnds.add(datasetId);
+    }
+
     private void close(org.jooq.Record row, Field<Long> idField, Field<OffsetDateTime> validTo, List<Long> closes) {
         Long id = row.get(idField);
         if (id == null) {
@@ -247,6 +258,11 @@ final class BatchRows {
         closeAll(stateCloses, DATASET_STATE.ID, DATASET_STATE.VALID_TO, DATASET_STATE);
         closeAll(schemaCloses, SCHEMA_VERSION.ID, SCHEMA_VERSION.VALID_TO, SCHEMA_VERSION);
         closeAll(partitionCloses, DATASET_PARTITION.ID, DATASET_PARTITION.VALID_TO, DATASET_PARTITION);
+        for (List<Long> chunk : chunks(checkEnds)) {
+            tx.db.update(FRESHNESS_CHECK).set(FRESHNESS_CHECK.VALID_TO, tx.now)
+                    .where(in(FRESHNESS_CHECK.DATASET_ID, chunk), FRESHNESS_CHECK.VALID_TO.isNull()).execute();
+        }
+        checkEnds.clear();
         if (!stateInserts.isEmpty()) {
             tx.db.batchInsert(stateInserts).execute();
         }

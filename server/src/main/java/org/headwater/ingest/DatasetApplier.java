@@ -41,14 +41,9 @@ final class DatasetApplier {
         if (schema != null) {
             tx.rows.closeSchema(schema);
         }
-        // A check says how fresh something is that exists; its last state stays as history. The policy
-        // stays current, so a dataset that comes back is held to it again. (Not a batched table: checks are
-        // not read by the harvest's batch.)
-        tx.db.update(org.headwater.store.schema.Tables.FRESHNESS_CHECK)
-                .set(org.headwater.store.schema.Tables.FRESHNESS_CHECK.VALID_TO, tx.now)
-                .where(org.headwater.store.schema.Tables.FRESHNESS_CHECK.DATASET_ID.eq(dataset.getId()),
-                        org.headwater.store.schema.Tables.FRESHNESS_CHECK.VALID_TO.isNull())
-                .execute();
+        // A check says how fresh something is that exists. The policy stays current, so a dataset that
+        // comes back is held to it again.
+        tx.rows.endCheck(dataset.getId());
         if (state != null) {
             tx.changed(Change.DATASET, dataset.getId(), "removed", dataset.getName());
         }
