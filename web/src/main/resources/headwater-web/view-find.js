@@ -129,7 +129,9 @@ hw.views.find = function (main, route) {
     let list = answer.hits;
     if (!answer.facets) list = list.filter((h) => Object.entries(chosen).every(([k, v]) => h[k] === v));
     const total = answer.total !== undefined && answer.facets ? answer.total : list.length;
-    summary.textContent = total ? total + (total === 1 ? " match" : " matches") + " for \u201c" + text + "\u201d" : "Nothing matches \u201c" + text + "\u201d.";
+    // Beyond the server's count cap the total is an estimate; say so rather than show a false exact figure.
+    const about = answer.exact === false ? "about " + total.toLocaleString("en") : total;
+    summary.textContent = total ? about + (total === 1 ? " match" : " matches") + " for \u201c" + text + "\u201d" : "Nothing matches \u201c" + text + "\u201d.";
     if (!total && answer.suggestion) {
       const s = hw.link("#/?q=" + encodeURIComponent(answer.suggestion), answer.suggestion);
       summary.append(" Did you mean ", s, "?");

@@ -79,7 +79,7 @@ final class SearchCommand implements Callable<Integer> {
                     out.printf("        matched %s%n", String.join(", ", e.matched()));
                 }
             }
-            out.printf("%d of %d%n", result.hits().size(), result.total());
+            out.printf("%d of %s%d%n", result.hits().size(), result.exact() ? "" : "about ", result.total());
             for (Map.Entry<String, Map<String, Integer>> facet : result.facets().entrySet()) {
                 if (!facet.getValue().isEmpty()) {
                     out.printf("  %-9s %s%n", facet.getKey(), facet.getValue());

@@ -5,7 +5,6 @@ import java.io.StringReader;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Map;
-import java.util.function.Predicate;
 import org.apache.lucene.analysis.Analyzer;
 import org.apache.lucene.analysis.TokenStream;
 import org.apache.lucene.analysis.en.EnglishAnalyzer;
@@ -16,12 +15,15 @@ import org.apache.lucene.search.BooleanQuery;
 import org.apache.lucene.search.BoostQuery;
 import org.apache.lucene.search.ConstantScoreQuery;
 import org.apache.lucene.search.DisjunctionMaxQuery;
-import org.apache.lucene.search.FuzzyQuery;
+import org.apache.lucene.search.BlendedTermQuery;
 import org.apache.lucene.search.MatchAllDocsQuery;
-import org.apache.lucene.search.PrefixQuery;
+import org.apache.lucene.search.AutomatonQuery;
 import org.apache.lucene.search.Query;
 import org.apache.lucene.search.TermQuery;
 import org.apache.lucene.util.QueryBuilder;
+import org.apache.lucene.util.automaton.Automata;
+import org.apache.lucene.util.automaton.Automaton;
+import org.apache.lucene.util.automaton.Operations;
 
 /**
  * Builds the Lucene queries for a {@link QueryText}. Each word becomes one clause that any field may satisfy:
@@ -40,7 +42,12 @@ final class LuceneQueries {
     private static final float PREFIX_SHARE = 0.25f;
     private static final float FUZZY_SHARE = 0.3f;
     private static final float EXACT_NAME_BOOST = 1000f;
-    private static final float TIE_BREAKER = 0.2f;
+    /**
+     * A word's score is its best field's, with nothing added for the other fields it is in. A share of the
+     * others (0.2 until December 2026) moved neither judged query set by more than 0.001 of nDCG, and without
+     * it each field's postings can skip blocks that cannot reach the top hits.
+     */
+    private static final float TIE_BREAKER = 0.0f;
 
     private final Analyzer identifiers = IdentifierAnalyzer.forQueries();
     private final Analyzer prose = new ProseAnalyzer();
@@ -48,32 +55,33 @@ final class LuceneQueries {
     /** Whether the all-words or any-word form is built. */
     enum Mode { ALL_WORDS, ANY_WORD }
 
-    /** The clause matching the whole text as an exact name: it puts exact matches first. */
+    /** The clause matching the whole text as an exact name, worth 1000: it puts exact matches first. */
     Query exactName(QueryText text) {
         return new BoostQuery(new ConstantScoreQuery(new TermQuery(new Term(Documents.NAME_EXACT,
                 Documents.exactForm(text.plainText())))), EXACT_NAME_BOOST);
     }
 
-    /** The text part of the query with prefix and typo clauses for every word; see {@link #text(QueryText, Mode, Predicate)}. */
+    /** The text part of the query with prefix clauses for every word; see {@link #text(QueryText, Mode, Vocabulary)}. */
     Query text(QueryText text, Mode mode) {
-        return text(text, mode, part -> false);
+        return text(text, mode, Vocabulary.EMPTY);
     }
 
     /**
      * The text part of the query (words and phrases, no filters, no ranking), or null for a text of filters only.
-     * A word the catalog holds ({@code known}) is matched as itself, by its stem and as a beginning; only an
-     * unknown one, a half-typed word or a typo, also gets the typo clauses, which cost an automaton per field
-     * and segment and widen every disjunction the search then scores.
+     * A word the catalog holds is matched as itself, by its stem and as a beginning; only an unknown one, a
+     * half-typed word or a typo, also gets the typo clauses: the words of the vocabulary near it, which widen
+     * every disjunction the search then scores.
      */
-    Query text(QueryText text, Mode mode, Predicate<String> known) {
+    Query text(QueryText text, Mode mode, Vocabulary vocabulary) {
         if (!text.hasText()) {
             return null;
         }
         BooleanQuery.Builder query = new BooleanQuery.Builder();
         List<String> parts = wordParts(text.words());
+        boolean inDataset = parts.size() > 1;
         if (mode == Mode.ALL_WORDS) {
             for (String part : parts) {
-                query.add(wordClause(part, known.test(part)), Occur.MUST);
+                query.add(wordClause(part, vocabulary, inDataset), Occur.MUST);
             }
         } else {
             // Any typed word will do, but the parts of one identifier (merge_lab_results) still go together.
@@ -83,17 +91,8 @@ final class LuceneQueries {
                     continue;
                 }
                 BooleanQuery.Builder together = new BooleanQuery.Builder();
-                own.forEach(part -> together.add(wordClause(part, known.test(part)), Occur.MUST));
+                own.forEach(part -> together.add(wordClause(part, vocabulary, inDataset), Occur.MUST));
                 query.add(together.build(), Occur.SHOULD);
-            }
-        }
-        for (String word : text.words()) {
-            // A whole identifier as typed (nitrate_mg_l) is indexed unsplit too: matching it is worth extra.
-            String whole = word.toLowerCase(java.util.Locale.ROOT);
-            if (!parts.contains(whole) && whole.length() > 1) {
-                for (Map.Entry<String, Float> f : Documents.IDENTIFIER_FIELDS.entrySet()) {
-                    query.add(new BoostQuery(new TermQuery(new Term(f.getKey(), whole)), f.getValue()), Occur.SHOULD);
-                }
             }
         }
         for (String phrase : text.phrases()) {
@@ -102,8 +101,41 @@ final class LuceneQueries {
         if (parts.isEmpty() && text.phrases().isEmpty()) {
             return null;
         }
-        query.add(exactName(text), Occur.SHOULD);
         return query.build();
+    }
+
+    /**
+     * Clauses that add to the score of a match but match nothing the words do not: a whole identifier as typed
+     * ({@code nitrate_mg_l}, indexed unsplit as well as in parts) in each identifier field, and the whole text
+     * as an exact name. The search scores them apart (see {@code SearchIndex.topHits}): as optional clauses
+     * of the words' query they would let no block of postings be skipped, since any block might hold one.
+     */
+    List<Query> bonuses(QueryText text) {
+        List<Query> out = new ArrayList<>();
+        List<String> parts = wordParts(text.words());
+        for (String word : text.words()) {
+            String whole = word.toLowerCase(java.util.Locale.ROOT);
+            if (!parts.contains(whole) && whole.length() > 1) {
+                for (Map.Entry<String, Float> f : Documents.IDENTIFIER_FIELDS.entrySet()) {
+                    out.add(new BoostQuery(new TermQuery(new Term(f.getKey(), whole)), f.getValue()));
+                }
+            }
+        }
+        out.add(exactName(text));
+        return out;
+    }
+
+    /** The query as hits are scored: the words' query plus whatever bonuses a match also has. */
+    Query withBonuses(Query textQuery, List<Query> bonuses, boolean bonusRequired) {
+        BooleanQuery.Builder q = new BooleanQuery.Builder().add(textQuery, Occur.MUST);
+        if (bonusRequired) {
+            // Two required scoring clauses, the same sum: the form a top-hit search can skip blocks in.
+            BooleanQuery.Builder any = new BooleanQuery.Builder();
+            bonuses.forEach(b -> any.add(b, Occur.SHOULD));
+            return q.add(any.build(), Occur.MUST).build();
+        }
+        bonuses.forEach(b -> q.add(b, Occur.SHOULD));
+        return q.build();
     }
 
     /** The filters of the text as one query to use as a filter, or null when there are none. */
@@ -155,10 +187,14 @@ final class LuceneQueries {
         return content.isEmpty() ? parts : content;
     }
 
-    private Query wordClause(String part, boolean known) {
+    private Query wordClause(String part, Vocabulary vocabulary, boolean inDataset) {
+        boolean known = vocabulary.has(part);
         List<Query> alternatives = new ArrayList<>();
         for (Map.Entry<String, Float> f : Documents.IDENTIFIER_FIELDS.entrySet()) {
             alternatives.add(new BoostQuery(new TermQuery(new Term(f.getKey(), part)), f.getValue()));
+        }
+        if (inDataset) {
+            alternatives.add(new BoostQuery(new TermQuery(new Term(Documents.IN_DATASET, part)), Documents.IN_DATASET_WEIGHT));
         }
         List<String> stems = analyze(prose, part);
         if (!stems.isEmpty()) {
@@ -179,17 +215,41 @@ final class LuceneQueries {
             // are identifiers that also hold the word itself as a part; in the unstemmed words of prose they are
             // not (merge finds merged), so there the prefix stays.
             for (Map.Entry<String, Float> f : (known ? KNOWN_PREFIX_FIELDS : PREFIX_FIELDS).entrySet()) {
-                alternatives.add(new BoostQuery(new PrefixQuery(new Term(f.getKey(), part)), f.getValue() * PREFIX_SHARE));
+                alternatives.add(new BoostQuery(beginning(f.getKey(), part), f.getValue() * PREFIX_SHARE));
             }
         }
-        if (edits > 0) {
+        List<Vocabulary.Near> near = edits > 0 ? vocabulary.near(part, edits) : List.of();
+        if (!near.isEmpty()) {
             for (Map.Entry<String, Float> f : FUZZY_FIELDS.entrySet()) {
-                alternatives.add(new BoostQuery(new FuzzyQuery(new Term(f.getKey(), part), edits, 1, 20, true),
-                        f.getValue() * FUZZY_SHARE));
+                // Scored as a typo query's expansion is: each near word weighed by its closeness, all with the
+                // same (blended) word frequency, so a rare near word does not outrank the common one meant.
+                BlendedTermQuery.Builder blended = new BlendedTermQuery.Builder()
+                        .setRewriteMethod(BlendedTermQuery.BOOLEAN_REWRITE);
+                near.forEach(n -> blended.add(new Term(f.getKey(), n.word()), n.closeness()));
+                alternatives.add(new BoostQuery(blended.build(), f.getValue() * FUZZY_SHARE));
             }
         }
         return new DisjunctionMaxQuery(alternatives, TIE_BREAKER);
     }
+
+    /**
+     * Words that begin with {@code part}, leaving out whole identifiers with a joiner ({@code _ . -}) in them.
+     * A query part has no joiner, so such an identifier begins with the part only if its first word does, and
+     * that word is a term of the same document: leaving them out loses no match and, the clause being
+     * constant-score, changes no score. It does spare expanding to one term per file name
+     * ({@code nitrate_raw_1.csv}, {@code nitrate_raw_2.csv}, …) in a large catalog. The one thing not found
+     * is a beginning that runs across a camelCase boundary inside a joined name.
+     */
+    static Query beginning(String field, String part) {
+        Automaton a = Operations.concatenate(Automata.makeString(part), Operations.repeat(WORD_CHAR));
+        return new AutomatonQuery(new Term(field, part + "*"), Operations.determinize(a, Operations.DEFAULT_DETERMINIZE_WORK_LIMIT));
+    }
+
+    /** Any character but the joiners that the identifier analyzer keeps inside a whole identifier. */
+    private static final Automaton WORD_CHAR = Operations.union(List.of(
+            Automata.makeCharRange(0, '-' - 1),
+            Automata.makeCharRange('.' + 1, '_' - 1),
+            Automata.makeCharRange('_' + 1, Character.MAX_CODE_POINT)));
 
     /** Edits allowed for a typo: none up to three letters, one up to seven, two from eight. */
     static int editsFor(String word) {

@@ -5,13 +5,10 @@ import java.util.Arrays;
 import java.util.HashMap;
 import java.util.List;
 import java.util.Map;
-import java.util.Objects;
 import org.apache.lucene.index.DocValues;
-import org.apache.lucene.index.LeafReaderContext;
+import org.apache.lucene.index.IndexReader;
+import org.apache.lucene.index.LeafReader;
 import org.apache.lucene.index.NumericDocValues;
-import org.apache.lucene.search.DoubleValues;
-import org.apache.lucene.search.DoubleValuesSource;
-import org.apache.lucene.search.IndexSearcher;
 import org.headwater.store.SearchSource;
 
 /**
@@ -30,6 +27,7 @@ final class Ranks {
     private final long[] ids;
     private final int[] uses;
     private final double[] centrality;
+    private final Map<IndexReader.CacheKey, SegmentFactors> factorsBySegment = new java.util.concurrent.ConcurrentHashMap<>();
 
     private Ranks(long[] ids, int[] uses, double[] centrality) {
         this.ids = ids;
@@ -89,68 +87,57 @@ final class Ranks {
         return FAMILY_WEIGHT[family] * (1 + USE_WEIGHT * u / (u + 2.0)) * (1 + CENTRALITY_WEIGHT * c / (c + 1.0));
     }
 
-    /** The factor as a Lucene value source over the {@code rank_id} and {@code family} doc values. */
-    DoubleValuesSource asValues() {
-        return new Source(this);
+    /**
+     * The factor of every document of a segment, by document number: two doc-values reads per document, done
+     * once per segment and ranks instead of once per match of every search. Ranks are replaced after every
+     * batch that touched the index, so the arrays of merged-away segments go with them.
+     */
+    SegmentFactors factors(LeafReader segment) throws IOException {
+        IndexReader.CacheHelper helper = segment.getCoreCacheHelper();
+        if (helper == null || this == NONE) {
+            // NONE is shared by every index of the process; it would keep their segments' arrays.
+            return computeFactors(segment);
+        }
+        SegmentFactors cached = factorsBySegment.get(helper.getKey());
+        if (cached == null) {
+            cached = computeFactors(segment);
+            factorsBySegment.put(helper.getKey(), cached);
+        }
+        return cached;
     }
 
-    private static final class Source extends DoubleValuesSource {
-        private final Ranks ranks;
-
-        Source(Ranks ranks) {
-            this.ranks = ranks;
-        }
-
-        @Override
-        public DoubleValues getValues(LeafReaderContext ctx, DoubleValues scores) throws IOException {
-            NumericDocValues rankIds = DocValues.getNumeric(ctx.reader(), Documents.RANK_ID);
-            NumericDocValues families = DocValues.getNumeric(ctx.reader(), Documents.FAMILY_CODE);
-            return new DoubleValues() {
-                double value;
-
-                @Override
-                public double doubleValue() {
-                    return value;
-                }
-
-                @Override
-                public boolean advanceExact(int doc) throws IOException {
-                    long id = rankIds.advanceExact(doc) ? rankIds.longValue() : 0;
-                    int family = families.advanceExact(doc) ? (int) families.longValue() : 0;
-                    value = ranks.factor(family, id);
-                    return true;
-                }
-            };
-        }
-
-        @Override
-        public boolean needsScores() {
-            return false;
-        }
-
-        @Override
-        public DoubleValuesSource rewrite(IndexSearcher reader) {
-            return this;
-        }
-
-        @Override
-        public int hashCode() {
-            return System.identityHashCode(ranks);
-        }
-
-        @Override
-        public boolean equals(Object obj) {
-            return obj instanceof Source other && Objects.equals(other.ranks, ranks);
-        }
-
-        @Override
-        public String toString() {
-            return "use and centrality";
-        }
-
-        @Override
-        public boolean isCacheable(LeafReaderContext ctx) {
-            return false;
+    /**
+     * The factors of a segment's documents, and for each block of {@link #BLOCK} documents the largest factor
+     * from that block to the segment's end: the bound on the factor of every document still to come.
+     */
+    record SegmentFactors(float[] byDoc, float[] largestFromBlock) {
+        float largestFrom(int doc) {
+            int block = doc >>> BLOCK_SHIFT;
+            return block < largestFromBlock.length ? largestFromBlock[block] : 0;
         }
     }
+
+    private static final int BLOCK_SHIFT = 7;
+    static final int BLOCK = 1 << BLOCK_SHIFT;
+
+    private SegmentFactors computeFactors(LeafReader segment) throws IOException {
+        float[] out = new float[segment.maxDoc()];
+        NumericDocValues rankIds = DocValues.getNumeric(segment, Documents.RANK_ID);
+        NumericDocValues families = DocValues.getNumeric(segment, Documents.FAMILY_CODE);
+        for (int doc = 0; doc < out.length; doc++) {
+            long id = rankIds.advanceExact(doc) ? rankIds.longValue() : 0;
+            int family = families.advanceExact(doc) ? (int) families.longValue() : 0;
+            out[doc] = (float) factor(family, id);
+        }
+        float[] largest = new float[(out.length + BLOCK - 1) >>> BLOCK_SHIFT];
+        float running = 0;
+        for (int doc = out.length - 1; doc >= 0; doc--) {
+            running = Math.max(running, out[doc]);
+            if ((doc & (BLOCK - 1)) == 0) {
+                largest[doc >>> BLOCK_SHIFT] = Math.nextUp(running);
+            }
+        }
+        return new SegmentFactors(out, largest);
+    }
+
 }

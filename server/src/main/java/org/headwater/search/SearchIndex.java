@@ -12,30 +12,22 @@ import java.util.Map;
 import java.util.Set;
 import java.util.TreeMap;
 import java.util.TreeSet;
-import java.util.function.Predicate;
 import org.apache.lucene.document.Document;
-import org.apache.lucene.facet.FacetResult;
-import org.apache.lucene.facet.FacetsCollector;
-import org.apache.lucene.facet.FacetsCollectorManager;
-import org.apache.lucene.facet.LabelAndValue;
-import org.apache.lucene.facet.sortedset.DefaultSortedSetDocValuesReaderState;
-import org.apache.lucene.facet.sortedset.SortedSetDocValuesFacetCounts;
-import org.apache.lucene.index.DocValues;
+import org.apache.lucene.index.DirectoryReader;
 import org.apache.lucene.index.IndexReader;
 import org.apache.lucene.index.IndexWriter;
 import org.apache.lucene.index.IndexWriterConfig;
-import org.apache.lucene.index.NumericDocValues;
+import org.apache.lucene.index.SegmentInfos;
 import org.apache.lucene.index.Term;
-import org.apache.lucene.queries.function.FunctionScoreQuery;
-import org.apache.lucene.search.DocIdSetIterator;
 import org.apache.lucene.search.Explanation;
 import org.apache.lucene.search.IndexSearcher;
 import org.apache.lucene.search.MatchAllDocsQuery;
 import org.apache.lucene.search.Query;
 import org.apache.lucene.search.ScoreDoc;
+import org.apache.lucene.search.SearcherFactory;
 import org.apache.lucene.search.SearcherManager;
-import org.apache.lucene.search.TermQuery;
 import org.apache.lucene.search.TopDocs;
+import org.apache.lucene.search.TopScoreDocCollectorManager;
 import org.apache.lucene.search.spell.DirectSpellChecker;
 import org.apache.lucene.search.spell.SuggestMode;
 import org.apache.lucene.search.spell.SuggestWord;
@@ -62,13 +54,23 @@ import org.slf4j.LoggerFactory;
 public final class SearchIndex implements ChangeListener, AutoCloseable {
     private static final Logger LOG = LoggerFactory.getLogger(SearchIndex.class);
     static final String SEQ_KEY = "headwater.change_seq";
+    /**
+     * The layout of the documents: an index written with another is rebuilt at open. 2: a column's dataset
+     * name moved to its own field; 3: documents kept in family order.
+     */
+    static final String FORMAT_KEY = "headwater.index_format";
+    static final String FORMAT = "3";
     /** Dataset and column documents carry their dataset's id here, so a dataset's documents leave together. */
     private static final String OF_DATASET = "of_dataset";
     private static final int FACET_VALUES = 50;
+    /** Matches visited for the total and the facets before they become estimates. */
+    static final int COUNT_CAP = 10_000;
     private static final int SNIPPET_LENGTH = 240;
     private static final double BUFFER_MB = 64;
     private static final double REBUILD_BUFFER_MB = 256;
     private static final int INDEXING_THREADS = 2;
+    /** Threads that search segments in parallel, shared by every index of the process. */
+    private static final java.util.concurrent.ExecutorService SEARCH_THREADS = searchThreads();
 
     private final Directory directory;
     private final IndexWriter writer;
@@ -79,7 +81,7 @@ public final class SearchIndex implements ChangeListener, AutoCloseable {
     private volatile Ranks ranks = Ranks.NONE;
     private volatile boolean ranksStale = true;
     private volatile FreshnessProvider freshness = FreshnessProvider.UNKNOWN;
-    private DefaultSortedSetDocValuesReaderState facetState;
+    private volatile int countCap = COUNT_CAP;
 
     private SearchIndex(Directory directory, CatalogReader catalog) throws IOException {
         this.directory = directory;
@@ -87,11 +89,32 @@ public final class SearchIndex implements ChangeListener, AutoCloseable {
         IndexWriterConfig config = new IndexWriterConfig(Documents.indexAnalyzer())
                 .setOpenMode(IndexWriterConfig.OpenMode.CREATE_OR_APPEND)
                 .setRAMBufferSizeMB(BUFFER_MB)
+                .setIndexSort(Documents.INDEX_ORDER)
                 // Compound files copy every new segment once more; the index is few enough segments without them.
                 .setUseCompoundFile(false);
         config.getMergePolicy().setNoCFSRatio(0.0);
         this.writer = new IndexWriter(directory, config);
-        this.searchers = new SearcherManager(writer, null);
+        this.searchers = new SearcherManager(writer, new SearcherFactory() {
+            @Override
+            public IndexSearcher newSearcher(IndexReader reader, IndexReader previous) {
+                // Segments are searched on the search threads as well as the caller's, so one broad search
+                // uses every core; the query cache is off because the filters here are cheap to rerun and
+                // caching one means visiting every match once.
+                IndexSearcher searcher = new IndexSearcher(reader, SEARCH_THREADS);
+                searcher.setQueryCache(null);
+                return searcher;
+            }
+        });
+    }
+
+    private static java.util.concurrent.ExecutorService searchThreads() {
+        java.util.concurrent.atomic.AtomicInteger n = new java.util.concurrent.atomic.AtomicInteger();
+        return java.util.concurrent.Executors.newFixedThreadPool(Math.max(1, Math.min(4, Runtime.getRuntime().availableProcessors())),
+                r -> {
+                    Thread t = new Thread(r, "search-" + n.incrementAndGet());
+                    t.setDaemon(true);
+                    return t;
+                });
     }
 
     /** Opens the index in a folder, bringing it up to date with the store. */
@@ -99,6 +122,7 @@ public final class SearchIndex implements ChangeListener, AutoCloseable {
         try {
             Files.createDirectories(folder);
             SearchIndex index;
+            discardOtherFormat(folder);
             try {
                 index = new SearchIndex(FSDirectory.open(folder), catalog);
             } catch (IOException | RuntimeException damaged) {
@@ -111,6 +135,28 @@ public final class SearchIndex implements ChangeListener, AutoCloseable {
             return index;
         } catch (IOException e) {
             throw new SearchException("Cannot open the search index in " + folder, e);
+        }
+    }
+
+    /**
+     * Deletes an index written in another layout: a writer cannot reopen an index kept in another order, and
+     * the store rebuilds it anyway.
+     */
+    private static void discardOtherFormat(Path folder) throws IOException {
+        String format;
+        try (Directory existing = FSDirectory.open(folder)) {
+            if (!DirectoryReader.indexExists(existing)) {
+                return;
+            }
+            format = SegmentInfos.readLatestCommit(existing).getUserData().get(FORMAT_KEY);
+        } catch (IOException | RuntimeException unreadable) {
+            // A damaged index is dealt with where the writer opens it.
+            return;
+        }
+        if (!FORMAT.equals(format)) {
+            LOG.info("The search index in {} was written in another layout ({}); rebuilding it from the store", folder,
+                    format == null ? "before layouts were numbered" : "layout " + format);
+            deleteIndexFiles(folder);
         }
     }
 
@@ -130,14 +176,23 @@ public final class SearchIndex implements ChangeListener, AutoCloseable {
         this.freshness = java.util.Objects.requireNonNull(provider, "provider");
     }
 
+    /** Sets how many matches are counted exactly before totals and facets are estimated; for tests. */
+    void countCap(int cap) {
+        this.countCap = cap;
+    }
+
     /** The change-log sequence number the index has absorbed. */
     public synchronized long absorbedSeq() {
+        return Long.parseLong(commitData().getOrDefault(SEQ_KEY, "0"));
+    }
+
+    private Map<String, String> commitData() {
         Map<String, String> data = new java.util.HashMap<>();
         Iterable<Map.Entry<String, String>> live = writer.getLiveCommitData();
         if (live != null) {
             live.forEach(e -> data.put(e.getKey(), e.getValue()));
         }
-        return Long.parseLong(data.getOrDefault(SEQ_KEY, "0"));
+        return data;
     }
 
     private synchronized void catchUp() throws IOException {
@@ -342,20 +397,34 @@ public final class SearchIndex implements ChangeListener, AutoCloseable {
     }
 
     /**
-     * Records the absorbed sequence number and makes the batch searchable (a near-real-time reader on the
-     * writer). The durable Lucene commit, which syncs files, happens at most every {@link #COMMIT_INTERVAL_NANOS}
-     * and at close: an index that loses its last second to a crash catches up from the change log at the
-     * next start, from the number of its last commit.
+     * Records the absorbed sequence number and marks the index as holding what no searcher sees yet. The
+     * durable Lucene commit, which syncs files, happens at most every {@link #COMMIT_INTERVAL_NANOS} and at
+     * close: an index that loses its last second to a crash catches up from the change log at the next start,
+     * from the number of its last commit.
      */
     private void commit(long seq) throws IOException {
-        writer.setLiveCommitData(Map.of(SEQ_KEY, Long.toString(seq)).entrySet());
+        writer.setLiveCommitData(Map.of(SEQ_KEY, Long.toString(seq), FORMAT_KEY, FORMAT).entrySet());
         long now = System.nanoTime();
         if (now - lastCommitNanos >= COMMIT_INTERVAL_NANOS) {
             writer.commit();
             lastCommitNanos = now;
         }
-        searchers.maybeRefreshBlocking();
+        // Set after the documents went in, so a reader that clears it then refreshes sees them.
+        unseen = true;
     }
+
+    /**
+     * Makes what was written searchable (a near-real-time reader on the writer) before a read, instead of
+     * after every batch: a harvest of many batches with no one searching reopens no reader at all.
+     */
+    private void refreshIfWritten() throws IOException {
+        if (unseen) {
+            unseen = false;
+            searchers.maybeRefreshBlocking();
+        }
+    }
+
+    private volatile boolean unseen;
 
     private static final long COMMIT_INTERVAL_NANOS = 1_000_000_000L;
     private long lastCommitNanos = System.nanoTime() - COMMIT_INTERVAL_NANOS;
@@ -367,54 +436,75 @@ public final class SearchIndex implements ChangeListener, AutoCloseable {
 
     /**
      * Runs a search: all words required first, any word when nothing has them all; hits ordered by text
-     * relevance times use and centrality, exact name matches first; facets counted over all matches.
+     * relevance times use and centrality, exact name matches first; the total and the facets counted over
+     * all matches, or estimated from a share of them when there are more than the count cap.
      *
      * @throws QuerySyntaxException when the text does not follow the query syntax
      */
     public SearchResult search(SearchRequest request) {
+        return search(request, SearchIndex::topHits);
+    }
+
+    /**
+     * The same search with every match scored and nothing skipped, by Lucene's exhaustive top-hit collection;
+     * tests compare {@link #search} with it.
+     */
+    SearchResult searchScoringEveryMatch(SearchRequest request) {
+        return search(request, (searcher, query, bonuses, ranks, depth) -> List.of(searcher.search(
+                new RankedQuery(QUERIES.withBonuses(query, bonuses, false), ranks),
+                new TopScoreDocCollectorManager(depth, null, Integer.MAX_VALUE)).scoreDocs));
+    }
+
+    /** How the best hits of a query and its bonuses are found. */
+    private interface HitFinder {
+        List<ScoreDoc> find(IndexSearcher searcher, Query query, List<Query> bonuses, Ranks ranks, int depth)
+                throws IOException;
+    }
+
+    private SearchResult search(SearchRequest request, HitFinder topHits) {
         QueryText text = QueryText.parse(request.text());
         Ranks current = currentRanks();
         Query filter = QUERIES.filters(text, request.kind(), freshness);
         try {
+            refreshIfWritten();
             IndexSearcher searcher = searchers.acquire();
             try {
-                Predicate<String> known = knownWords(searcher.getIndexReader());
+                Vocabulary known = Vocabulary.of(searcher.getIndexReader());
                 Query allWords = QUERIES.text(text, LuceneQueries.Mode.ALL_WORDS, known);
                 if (allWords == null && text.hasText()) {
                     return empty(request, searcher, text);
                 }
                 int depth = request.page() * request.size();
-                FacetsCollectorManager.FacetsResult found = run(searcher, allWords, filter, current, depth);
-                List<ScoreDoc> ranked = new ArrayList<>(List.of(found.topDocs().scoreDocs));
+                Query query = QUERIES.combined(allWords, filter);
+                List<Query> bonuses = allWords == null ? List.of() : QUERIES.bonuses(text);
+                List<ScoreDoc> ranked = new ArrayList<>(topHits.find(searcher, query, bonuses, current, depth));
                 int allWordHits = ranked.size();
                 Query textQuery = allWords;
                 if (allWords != null && ranked.size() < depth && text.words().size() > 1) {
                     // All words preferred: documents with only some of the words follow those with all of them.
                     Query anyWord = QUERIES.text(text, LuceneQueries.Mode.ANY_WORD, known);
-                    FacetsCollectorManager.FacetsResult more = run(searcher, anyWord, filter, current, depth);
+                    query = QUERIES.combined(anyWord, filter);
                     Set<Integer> seen = new HashSet<>();
                     ranked.forEach(sd -> seen.add(sd.doc));
-                    for (ScoreDoc sd : more.topDocs().scoreDocs) {
+                    for (ScoreDoc sd : topHits.find(searcher, query, bonuses, current, depth)) {
                         if (ranked.size() < depth && seen.add(sd.doc)) {
                             ranked.add(sd);
                         }
                     }
-                    found = more;
                     textQuery = anyWord;
                 }
-                long total = 0;
-                for (FacetsCollector.MatchingDocs m : found.facetsCollector().getMatchingDocs()) {
-                    total += m.totalHits;
-                }
+                // The any-word matches include the all-word ones, so its count is the total.
+                MatchCounter.Counted counted = MatchCounter.count(searcher, query, countCap, FACET_VALUES, freshness);
                 int from = Math.min(ranked.size(), (request.page() - 1) * request.size());
                 List<SearchHit> hits = new ArrayList<>();
+                Query explained = textQuery == null ? null : QUERIES.withBonuses(textQuery, bonuses, false);
                 for (int i = from; i < ranked.size(); i++) {
                     String mode = i < allWordHits ? "all words" : "any word";
-                    hits.add(hit(searcher, ranked.get(i), textQuery, request.explain() ? mode : null, current));
+                    hits.add(hit(searcher, ranked.get(i), explained, request.explain() ? mode : null, current));
                 }
                 hits = withSnippets(searcher, hits, ranked.subList(from, ranked.size()), textQuery);
-                return new SearchResult(request.text(), total, request.page(), request.size(), hits,
-                        facets(searcher, found.facetsCollector()), suggestion(searcher, text));
+                return new SearchResult(request.text(), counted.total(), counted.exact(), request.page(), request.size(),
+                        hits, counted.facets(), suggestion(searcher, text));
             } finally {
                 searchers.release(searcher);
             }
@@ -423,27 +513,43 @@ public final class SearchIndex implements ChangeListener, AutoCloseable {
         }
     }
 
-    /** Whether a word part occurs in the catalog: one terms-dictionary lookup per part and segment. */
-    private static Predicate<String> knownWords(IndexReader reader) {
-        return part -> {
-            try {
-                return reader.docFreq(new Term(Documents.WORDS, part)) > 0;
-            } catch (IOException e) {
-                throw new UncheckedIOException(e);
-            }
-        };
-    }
-
     private SearchResult empty(SearchRequest request, IndexSearcher searcher, QueryText text) throws IOException {
-        return new SearchResult(request.text(), 0, request.page(), request.size(), List.of(), emptyFacets(),
+        return new SearchResult(request.text(), 0, true, request.page(), request.size(), List.of(), emptyFacets(),
                 suggestion(searcher, text));
     }
 
-    private static FacetsCollectorManager.FacetsResult run(IndexSearcher searcher, Query textQuery, Query filter,
-            Ranks ranks, int depth) throws IOException {
-        Query query = QUERIES.combined(textQuery, filter);
-        Query ranked = FunctionScoreQuery.boostByValue(query, ranks.asValues());
-        return FacetsCollectorManager.search(searcher, ranked, depth, new FacetsCollectorManager());
+    /**
+     * The best {@code depth} hits of the query plus its bonuses, found in two searches that each let blocks of
+     * postings that cannot reach the top be skipped: the matches that have a bonus, scored with it (few: they
+     * hold a rare whole identifier or name), and all matches scored without. A match without a bonus has the
+     * same score in both; one with a bonus scores higher in the first. So every hit of the best {@code depth}
+     * is among the first search's hits or the second's best {@code depth}.
+     */
+    private static List<ScoreDoc> topHits(IndexSearcher searcher, Query query, List<Query> bonuses, Ranks ranks,
+            int depth) throws IOException {
+        Map<Integer, ScoreDoc> byDoc = new java.util.HashMap<>();
+        float floor = 0;
+        if (!bonuses.isEmpty()) {
+            ScoreDoc[] withBonus = best(searcher, QUERIES.withBonuses(query, bonuses, true), ranks, depth, 0);
+            for (ScoreDoc sd : withBonus) {
+                byDoc.put(sd.doc, sd);
+            }
+            // With a full page of bonus hits, a match scoring below the last of them cannot make the page.
+            floor = withBonus.length == depth ? withBonus[depth - 1].score : 0;
+        }
+        for (ScoreDoc sd : best(searcher, query, ranks, depth, floor)) {
+            byDoc.putIfAbsent(sd.doc, sd);
+        }
+        List<ScoreDoc> out = new ArrayList<>(byDoc.values());
+        out.sort((a, b) -> a.score != b.score ? Float.compare(b.score, a.score) : Integer.compare(a.doc, b.doc));
+        return out.size() > depth ? new ArrayList<>(out.subList(0, depth)) : out;
+    }
+
+    /** The best {@code depth} hits of the query, ranked, leaving out what scores below {@code floor}. */
+    private static ScoreDoc[] best(IndexSearcher searcher, Query query, Ranks ranks, int depth, float floor)
+            throws IOException {
+        return searcher.search(new RankedQuery(query, ranks),
+                ScoreFloor.of(new TopScoreDocCollectorManager(depth, null, depth), floor)).scoreDocs;
     }
 
 
@@ -578,36 +684,6 @@ public final class SearchIndex implements ChangeListener, AutoCloseable {
         }
     }
 
-    private Map<String, Map<String, Integer>> facets(IndexSearcher searcher, FacetsCollector collector)
-            throws IOException {
-        Map<String, Map<String, Integer>> out = emptyFacets();
-        DefaultSortedSetDocValuesReaderState state = facetState(searcher.getIndexReader());
-        if (state != null) {
-            SortedSetDocValuesFacetCounts counts = new SortedSetDocValuesFacetCounts(state, collector);
-            for (String dim : Documents.FACETS) {
-                FacetResult result = counts.getTopChildren(FACET_VALUES, dim);
-                if (result != null) {
-                    for (LabelAndValue lv : result.labelValues) {
-                        out.get(dim).put(lv.label, lv.value.intValue());
-                    }
-                }
-            }
-        }
-        Map<String, Integer> fresh = out.get("freshness");
-        FreshnessProvider provider = freshness;
-        for (FacetsCollector.MatchingDocs m : collector.getMatchingDocs()) {
-            NumericDocValues families = DocValues.getNumeric(m.context.reader(), Documents.FAMILY_CODE);
-            NumericDocValues ids = DocValues.getNumeric(m.context.reader(), Documents.RANK_ID);
-            DocIdSetIterator docs = m.bits.iterator();
-            for (int doc = docs.nextDoc(); doc != DocIdSetIterator.NO_MORE_DOCS; doc = docs.nextDoc()) {
-                if (families.advanceExact(doc) && families.longValue() == Documents.DATASET && ids.advanceExact(doc)) {
-                    fresh.merge(provider.stateOf(ids.longValue()), 1, Integer::sum);
-                }
-            }
-        }
-        return out;
-    }
-
     private static Map<String, Map<String, Integer>> emptyFacets() {
         Map<String, Map<String, Integer>> out = new LinkedHashMap<>();
         for (String dim : Documents.FACETS) {
@@ -615,18 +691,6 @@ public final class SearchIndex implements ChangeListener, AutoCloseable {
         }
         out.put("freshness", new TreeMap<>());
         return out;
-    }
-
-    private synchronized DefaultSortedSetDocValuesReaderState facetState(IndexReader reader) throws IOException {
-        if (facetState == null || facetState.getReader() != reader) {
-            try {
-                facetState = new DefaultSortedSetDocValuesReaderState(reader, Documents.FACETS_CONFIG);
-            } catch (IllegalArgumentException emptyIndex) {
-                // An index without documents has no facet field yet.
-                return null;
-            }
-        }
-        return facetState;
     }
 
     /**

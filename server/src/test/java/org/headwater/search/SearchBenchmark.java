@@ -156,7 +156,7 @@ public final class SearchBenchmark {
         return words[random.nextInt(words.length)];
     }
 
-    private static void fill(Store store, int datasets, int perDataset, Random random) throws Exception {
+    static void fill(Store store, int datasets, int perDataset, Random random) throws Exception {
         Timestamp now = Timestamp.from(Instant.parse("2026-01-01T00:00:00Z"));
         try (Connection c = store.dsl().configuration().connectionProvider().acquire()) {
             c.setAutoCommit(false);
