@@ -159,7 +159,7 @@ final class BatchRows {
         if (fresh.isEmpty()) {
             return;
         }
-        tx.db.batchInsert(fresh).execute();
+        RecordBatch.insert(tx.db, fresh);
         List<String> freshUris = new ArrayList<>();
         fresh.forEach(d -> freshUris.add(d.getUri()));
         for (List<String> chunk : chunks(freshUris)) {
@@ -264,10 +264,10 @@ final class BatchRows {
         }
         checkEnds.clear();
         if (!stateInserts.isEmpty()) {
-            tx.db.batchInsert(stateInserts).execute();
+            RecordBatch.insert(tx.db, stateInserts);
         }
         if (!partitionInserts.isEmpty()) {
-            tx.db.batchInsert(partitionInserts).execute();
+            RecordBatch.insert(tx.db, partitionInserts);
         }
         writeSchemas();
         datasets.clear();
@@ -288,7 +288,7 @@ final class BatchRows {
         if (schemaInserts.isEmpty()) {
             return;
         }
-        tx.db.batchInsert(schemaInserts).execute();
+        RecordBatch.insert(tx.db, schemaInserts);
         // The new versions' ids, by their natural key (dataset, version), which is unique.
         Map<String, Long> ids = new HashMap<>();
         List<Long> datasetIds = new ArrayList<>(new HashSet<>(schemaInserts.stream().map(SchemaVersionRecord::getDatasetId).toList()));
@@ -313,7 +313,7 @@ final class BatchRows {
             }
         }
         for (List<SchemaColumnRecord> chunk : chunks(columns)) {
-            tx.db.batchInsert(chunk).execute();
+            RecordBatch.insert(tx.db, chunk);
         }
     }
 

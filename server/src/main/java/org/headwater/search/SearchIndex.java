@@ -182,7 +182,12 @@ public final class SearchIndex implements ChangeListener, AutoCloseable {
     }
 
     /** The change-log sequence number the index has absorbed. */
-    public synchronized long absorbedSeq() {
+    public long absorbedSeq() {
+        awaitWrites();
+        return absorbed();
+    }
+
+    private synchronized long absorbed() {
         return Long.parseLong(commitData().getOrDefault(SEQ_KEY, "0"));
     }
 
@@ -196,7 +201,7 @@ public final class SearchIndex implements ChangeListener, AutoCloseable {
     }
 
     private synchronized void catchUp() throws IOException {
-        long absorbed = absorbedSeq();
+        long absorbed = absorbed();
         long last = source.reader().lastChangeSeq();
         if (absorbed == last) {
             return;
@@ -310,7 +315,27 @@ public final class SearchIndex implements ChangeListener, AutoCloseable {
     }
 
     @Override
-    public synchronized void committed(List<Change> changes) {
+    public void committed(List<Change> changes) {
+        synchronized (writesLock) {
+            writesHanded++;
+        }
+        writes.execute(() -> {
+            try {
+                absorb(changes);
+            } catch (RuntimeException e) {
+                // The store is the truth and already holds the batch; the index catches up from the change log
+                // at the next start.
+                LOG.warn("Indexing a batch failed; the index will catch up from the change log", e);
+            } finally {
+                synchronized (writesLock) {
+                    writesDone++;
+                    writesLock.notifyAll();
+                }
+            }
+        });
+    }
+
+    private synchronized void absorb(List<Change> changes) {
         Changed changed = new Changed();
         long seq = 0;
         for (Change change : changes) {
@@ -318,9 +343,45 @@ public final class SearchIndex implements ChangeListener, AutoCloseable {
             seq = Math.max(seq, change.seq());
         }
         try {
-            write(changed, Math.max(seq, absorbedSeq()));
+            write(changed, Math.max(seq, absorbed()));
         } catch (IOException e) {
             throw new UncheckedIOException(e);
+        }
+    }
+
+    /**
+     * Batches are indexed on this thread, one after another, so that the ingestion path goes on to its next
+     * batch while the last one is analysed; a read waits for the batches handed over before it
+     * ({@link #awaitWrites}), so what was applied is what is searched.
+     */
+    private final java.util.concurrent.ExecutorService writes = java.util.concurrent.Executors.newSingleThreadExecutor(r -> {
+        Thread t = new Thread(r, "search-index-writer");
+        t.setDaemon(true);
+        return t;
+    });
+    private final Object writesLock = new Object();
+    private long writesHanded;
+    private long writesDone;
+    private static final long WRITE_WAIT_MILLIS = 120_000;
+
+    /** Waits until every batch handed to the index before this call is in it (at most two minutes). */
+    private void awaitWrites() {
+        synchronized (writesLock) {
+            long target = writesHanded;
+            long deadline = System.currentTimeMillis() + WRITE_WAIT_MILLIS;
+            while (writesDone < target) {
+                long left = deadline - System.currentTimeMillis();
+                if (left <= 0) {
+                    LOG.warn("The search index is still {} batches behind; searching what it holds", target - writesDone);
+                    return;
+                }
+                try {
+                    writesLock.wait(left);
+                } catch (InterruptedException e) {
+                    Thread.currentThread().interrupt();
+                    return;
+                }
+            }
         }
     }
 
@@ -466,6 +527,7 @@ public final class SearchIndex implements ChangeListener, AutoCloseable {
         Ranks current = currentRanks();
         Query filter = QUERIES.filters(text, request.kind(), freshness);
         try {
+            awaitWrites();
             refreshIfWritten();
             IndexSearcher searcher = searchers.acquire();
             try {
@@ -726,6 +788,7 @@ public final class SearchIndex implements ChangeListener, AutoCloseable {
 
     /** Number of documents in the index; tests compare it with the store. */
     public int documentCount() {
+        awaitWrites();
         try {
             searchers.maybeRefreshBlocking();
             IndexSearcher searcher = searchers.acquire();
@@ -741,6 +804,7 @@ public final class SearchIndex implements ChangeListener, AutoCloseable {
 
     /** The keys of every document ({@code dataset:7}, {@code column:7:2}, {@code script:3}, {@code owner:1}), sorted. */
     public List<String> keys() {
+        awaitWrites();
         try {
             searchers.maybeRefreshBlocking();
             IndexSearcher searcher = searchers.acquire();
@@ -770,7 +834,20 @@ public final class SearchIndex implements ChangeListener, AutoCloseable {
     }
 
     @Override
-    public synchronized void close() {
+    public void close() {
+        awaitWrites();
+        writes.shutdown();
+        try {
+            if (!writes.awaitTermination(WRITE_WAIT_MILLIS, java.util.concurrent.TimeUnit.MILLISECONDS)) {
+                LOG.warn("The search index writer did not finish; the index will catch up from the change log");
+            }
+        } catch (InterruptedException e) {
+            Thread.currentThread().interrupt();
+        }
+        closeWriter();
+    }
+
+    private synchronized void closeWriter() {
         try {
             writer.commit();
             searchers.close();
