@@ -242,7 +242,19 @@ final class LuceneQueries {
      */
     static Query beginning(String field, String part) {
         Automaton a = Operations.concatenate(Automata.makeString(part), Operations.repeat(WORD_CHAR));
-        return new AutomatonQuery(new Term(field, part + "*"), Operations.determinize(a, Operations.DEFAULT_DETERMINIZE_WORK_LIMIT));
+        return new Beginning(new Term(field, part), Operations.determinize(a, Operations.DEFAULT_DETERMINIZE_WORK_LIMIT));
+    }
+
+    /** The words of a field that begin with a part, written {@code field:part*} as a prefix query is. */
+    private static final class Beginning extends AutomatonQuery {
+        Beginning(Term part, Automaton automaton) {
+            super(part, automaton);
+        }
+
+        @Override
+        public String toString(String field) {
+            return (term.field().equals(field) ? "" : term.field() + ":") + term.text() + "*";
+        }
     }
 
     /** Any character but the joiners that the identifier analyzer keeps inside a whole identifier. */

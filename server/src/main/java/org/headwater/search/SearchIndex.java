@@ -319,20 +319,30 @@ public final class SearchIndex implements ChangeListener, AutoCloseable {
         synchronized (writesLock) {
             writesHanded++;
         }
-        writes.execute(() -> {
-            try {
-                absorb(changes);
-            } catch (RuntimeException e) {
-                // The store is the truth and already holds the batch; the index catches up from the change log
-                // at the next start.
-                LOG.warn("Indexing a batch failed; the index will catch up from the change log", e);
-            } finally {
-                synchronized (writesLock) {
-                    writesDone++;
-                    writesLock.notifyAll();
-                }
+        try {
+            writes.execute(() -> absorbHanded(changes));
+        } catch (java.util.concurrent.RejectedExecutionException closed) {
+            synchronized (writesLock) {
+                writesHanded--;
             }
-        });
+            throw new SearchException("The search index is closed; the batch is in the store and will be indexed at the next start", closed);
+        }
+    }
+
+    /** Indexes a batch handed over by {@link #committed}, on the writer thread, and counts it as done. */
+    private void absorbHanded(List<Change> changes) {
+        try {
+            absorb(changes);
+        } catch (RuntimeException e) {
+            // The store is the truth and already holds the batch; the index catches up from the change log at
+            // the next start.
+            LOG.warn("Indexing a batch failed; the index will catch up from the change log", e);
+        } finally {
+            synchronized (writesLock) {
+                writesDone++;
+                writesLock.notifyAll();
+            }
+        }
     }
 
     private synchronized void absorb(List<Change> changes) {
@@ -524,10 +534,10 @@ public final class SearchIndex implements ChangeListener, AutoCloseable {
 
     private SearchResult search(SearchRequest request, HitFinder topHits) {
         QueryText text = QueryText.parse(request.text());
+        awaitWrites();
         Ranks current = currentRanks();
         Query filter = QUERIES.filters(text, request.kind(), freshness);
         try {
-            awaitWrites();
             refreshIfWritten();
             IndexSearcher searcher = searchers.acquire();
             try {
@@ -729,6 +739,9 @@ public final class SearchIndex implements ChangeListener, AutoCloseable {
                 ranks.factor(family, rankId), List.copyOf(new TreeSet<>(matched)));
     }
 
+    /** How a word-beginning clause explains itself: {@code name:chromat*}, maybe with {@code ^weight}. */
+    private static final java.util.regex.Pattern BEGINNING = java.util.regex.Pattern.compile("\\w+:[^\\s:]+\\*(\\^[\\d.E-]+)?");
+
     private static void collectMatches(Explanation e, List<String> out) {
         String description = e.getDescription();
         if (description.startsWith("weight(") && e.isMatch()) {
@@ -740,6 +753,9 @@ public final class SearchIndex implements ChangeListener, AutoCloseable {
             out.add(Documents.NAME_EXACT);
         } else if (description.startsWith("ConstantScore(") && e.isMatch()) {
             out.add(description.substring("ConstantScore(".length(), description.length() - 1));
+        } else if (e.isMatch() && e.getDetails().length == 0 && BEGINNING.matcher(description).matches()) {
+            // A word beginning scores as a constant: its explanation is the query itself, with its weight.
+            out.add(description.replaceFirst("\\^[^^]*$", ""));
         }
         for (Explanation detail : e.getDetails()) {
             collectMatches(detail, out);
