@@ -20,9 +20,9 @@ import org.apache.lucene.search.Weight;
 
 /**
  * A query whose scores are the inner query's times the {@link Ranks} factor of each document. Unlike a
- * function-score wrapper it tells the collector how high a score can get (the inner bound times the largest
- * factor), so collecting the top hits can skip blocks of postings that cannot reach them instead of scoring
- * every match.
+ * function-score wrapper it passes the collector's threshold on to the inner query (divided by the largest
+ * factor still to come) and lets that query know it is scored at the top level, so collecting the top hits
+ * can skip blocks of postings that cannot reach them instead of scoring every match.
  */
 final class RankedQuery extends Query {
     private final Query inner;
@@ -41,7 +41,7 @@ final class RankedQuery extends Query {
 
     @Override
     public Weight createWeight(IndexSearcher searcher, ScoreMode scoreMode, float boost) throws IOException {
-        Weight in = inner.createWeight(searcher, scoreMode, boost);
+        Weight in = searcher.createWeight(inner, scoreMode, boost);
         if (!scoreMode.needsScores()) {
             return in;
         }
