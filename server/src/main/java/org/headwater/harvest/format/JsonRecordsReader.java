@@ -2,16 +2,13 @@ package org.headwater.harvest.format;
 
 import com.fasterxml.jackson.core.JsonParser;
 import com.fasterxml.jackson.core.JsonToken;
-import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import java.io.IOException;
 import java.util.ArrayList;
-import java.util.Iterator;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
 import java.util.Set;
-import java.util.TreeSet;
 import org.headwater.model.ColumnDef;
 import org.headwater.model.DatasetKind;
 
@@ -95,8 +92,12 @@ public final class JsonRecordsReader implements FormatReader {
             if (line.isEmpty()) {
                 continue;
             }
-            try {
-                collected.add(MAPPER.readTree(line));
+            try (JsonParser parser = MAPPER.getFactory().createParser(line)) {
+                // As ObjectMapper.readTree reads a line: its first value, whatever follows it.
+                if (parser.nextToken() == null) {
+                    throw new IOException("no JSON value");
+                }
+                collected.add(parser);
             } catch (IOException e) {
                 boolean lastOfCutSample = !complete && i == lines.length - 1;
                 if (!lastOfCutSample) {
@@ -108,7 +109,7 @@ public final class JsonRecordsReader implements FormatReader {
 
     private static void readArray(JsonParser parser, Collected collected) throws IOException {
         while (parser.nextToken() == JsonToken.START_OBJECT && collected.records < MAX_RECORDS) {
-            collected.add(parser.readValueAsTree());
+            collected.add(parser);
         }
     }
 
@@ -120,7 +121,7 @@ public final class JsonRecordsReader implements FormatReader {
             if (value == JsonToken.START_ARRAY) {
                 JsonToken next = parser.nextToken();
                 if (next == JsonToken.START_OBJECT) {
-                    collected.add(parser.readValueAsTree());
+                    collected.add(parser);
                     readArray(parser, collected);
                     return name;
                 }
@@ -141,14 +142,13 @@ public final class JsonRecordsReader implements FormatReader {
         List<ColumnDef> columns = new ArrayList<>();
         Map<String, Object> details = new LinkedHashMap<>();
         List<Map<String, Object>> fields = new ArrayList<>();
-        for (Map.Entry<String, Set<String>> e : collected.types.entrySet()) {
-            Set<String> types = e.getValue();
-            boolean nullable = types.contains("null") || collected.seen.get(e.getKey()) < collected.records;
-            Set<String> present = new TreeSet<>(types);
-            present.remove("null");
-            String type = present.size() == 1 ? present.iterator().next() : present.isEmpty() ? "text" : "mixed";
-            columns.add(new ColumnDef(e.getKey(), type, nullable));
-            fields.add(Map.of("path", e.getKey(), "types", List.copyOf(types)));
+        for (Field field : collected.fields.values()) {
+            List<String> types = field.typeNames();
+            boolean nullable = types.contains("null") || field.seen < collected.records;
+            List<String> present = types.stream().filter(t -> !t.equals("null")).toList();
+            String type = present.size() == 1 ? present.get(0) : present.isEmpty() ? "text" : "mixed";
+            columns.add(new ColumnDef(field.path, type, nullable));
+            fields.add(Map.of("path", field.path, "types", types));
         }
         details.put("fields", fields);
         if (extra != null) {
@@ -160,63 +160,140 @@ public final class JsonRecordsReader implements FormatReader {
         return new Reading(format, DatasetKind.FILE, columns, count, exact, details);
     }
 
-    /** Field paths and their JSON types across the records read so far. */
+    /** JSON value types in alphabetical order, the order a field's types are listed in; bit i is TYPES[i]. */
+    private static final String[] TYPES = {"boolean", "date", "decimal", "integer", "null", "text", "timestamp"};
+    private static final int NULL = 4;
+
+    /** One field path: the JSON types seen at it and in how many records it occurs. */
+    private static final class Field {
+        final String path;
+        int types;
+        int seen;
+        int lastRecord = -1;
+
+        Field(String path) {
+            this.path = path;
+        }
+
+        List<String> typeNames() {
+            List<String> names = new ArrayList<>(2);
+            for (int i = 0; i < TYPES.length; i++) {
+                if ((types & 1 << i) != 0) {
+                    names.add(TYPES[i]);
+                }
+            }
+            return names;
+        }
+    }
+
+    /**
+     * A path prefix in the tree of paths met so far. Records of one file repeat the same paths, so each
+     * path string is built once and its field found once, not per record.
+     */
+    private static final class PathNode {
+        final String path;
+        private Map<String, PathNode> children;
+        private PathNode elements;
+        Field leaf;
+
+        PathNode(String path) {
+            this.path = path;
+        }
+
+        PathNode child(String key) {
+            if (children == null) {
+                children = new java.util.HashMap<>();
+            }
+            return children.computeIfAbsent(key, k -> new PathNode(path.isEmpty() ? k : path + "." + k));
+        }
+
+        PathNode elements() {
+            if (elements == null) {
+                elements = new PathNode(path + "[]");
+            }
+            return elements;
+        }
+    }
+
+    /**
+     * Field paths and their JSON types across the records read so far, walked off the token stream
+     * (no tree per record). A record's notes are kept back until the record has parsed to its end, so a
+     * record cut off by the end of a sample adds nothing, as when each record was read into a tree first.
+     */
     private static final class Collected {
-        final Map<String, Set<String>> types = new LinkedHashMap<>();
-        final Map<String, Integer> seen = new LinkedHashMap<>();
+        /** The fields of the records added, in the order their paths were first met. */
+        final Map<String, Field> fields = new LinkedHashMap<>();
+        /** Every path met, also in a record that failed to parse. */
+        private final Map<String, Field> byPath = new java.util.HashMap<>();
+        private final PathNode root = new PathNode("");
+        private final List<Field> pendingFields = new ArrayList<>();
+        private final List<Integer> pendingTypes = new ArrayList<>();
         int records;
 
-        void add(JsonNode record) {
+        /** Adds the value whose first token the parser is on, leaving the parser on its last token. */
+        void add(JsonParser parser) throws IOException {
+            pendingFields.clear();
+            pendingTypes.clear();
+            walk(parser, root);
+            for (int i = 0; i < pendingFields.size(); i++) {
+                Field field = pendingFields.get(i);
+                fields.putIfAbsent(field.path, field);
+                field.types |= 1 << pendingTypes.get(i);
+                if (field.lastRecord != records) {
+                    field.lastRecord = records;
+                    field.seen++;
+                }
+            }
             records++;
-            Set<String> inThisRecord = new TreeSet<>();
-            walk("", record, inThisRecord);
-            for (String path : inThisRecord) {
-                seen.merge(path, 1, Integer::sum);
-            }
         }
 
-        private void walk(String prefix, JsonNode node, Set<String> inThisRecord) {
-            if (node.isObject()) {
-                Iterator<Map.Entry<String, JsonNode>> it = node.fields();
-                while (it.hasNext()) {
-                    Map.Entry<String, JsonNode> f = it.next();
-                    walk(prefix.isEmpty() ? f.getKey() : prefix + "." + f.getKey(), f.getValue(), inThisRecord);
+        private void walk(JsonParser parser, PathNode node) throws IOException {
+            JsonToken token = parser.currentToken();
+            if (token == JsonToken.START_OBJECT) {
+                while (parser.nextToken() == JsonToken.FIELD_NAME) {
+                    PathNode child = node.child(parser.currentName());
+                    parser.nextToken();
+                    walk(parser, child);
                 }
                 return;
             }
-            if (node.isArray()) {
-                String path = prefix + "[]";
-                if (node.isEmpty()) {
-                    note(path, "null", inThisRecord);
+            if (token == JsonToken.START_ARRAY) {
+                PathNode elements = node.elements();
+                if (parser.nextToken() == JsonToken.END_ARRAY) {
+                    note(elements, NULL);
+                    return;
                 }
-                for (JsonNode element : node) {
-                    walk(path, element, inThisRecord);
-                }
+                do {
+                    walk(parser, elements);
+                } while (parser.nextToken() != JsonToken.END_ARRAY);
                 return;
             }
-            note(prefix.isEmpty() ? "value" : prefix, typeOf(node), inThisRecord);
+            note(node, typeOf(parser, token));
         }
 
-        private void note(String path, String type, Set<String> inThisRecord) {
-            types.computeIfAbsent(path, k -> new TreeSet<>()).add(type);
-            inThisRecord.add(path);
+        private void note(PathNode node, int type) {
+            if (node.leaf == null) {
+                String path = node.path.isEmpty() ? "value" : node.path;
+                node.leaf = byPath.computeIfAbsent(path, Field::new);
+            }
+            pendingFields.add(node.leaf);
+            pendingTypes.add(type);
         }
 
-        private static String typeOf(JsonNode node) {
-            if (node.isNull()) {
-                return "null";
-            }
-            if (node.isBoolean()) {
-                return "boolean";
-            }
-            if (node.isIntegralNumber()) {
-                return "integer";
-            }
-            if (node.isNumber()) {
-                return "decimal";
-            }
-            // Inside JSON a quoted "12" is still a string; only ISO-8601 dates and times are read out of strings.
-            return isoTemporal(node.asText());
+        private static int typeOf(JsonParser parser, JsonToken token) throws IOException {
+            return switch (token) {
+                case VALUE_NULL -> NULL;
+                case VALUE_TRUE, VALUE_FALSE -> 0;
+                case VALUE_NUMBER_INT -> 3;
+                case VALUE_NUMBER_FLOAT -> 2;
+                // Inside JSON a quoted "12" is still a string; only ISO-8601 dates and times are read out of strings.
+                case VALUE_STRING -> switch (isoTemporal(parser.getText())) {
+                    case "date" -> 1;
+                    case "timestamp" -> 6;
+                    default -> 5;
+                };
+                default -> throw new IOException("unexpected token " + token);
+            };
         }
     }
 

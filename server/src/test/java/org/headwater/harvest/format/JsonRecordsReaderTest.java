@@ -72,4 +72,100 @@ class JsonRecordsReaderTest {
         assertThat(r.rowCount()).isEqualTo(30L);
         assertThat(r.columns()).containsExactly(new ColumnDef("a", "integer", false));
     }
+
+    @Test
+    void pathsTypesAndOptionalFieldsAgreeWithAWalkOfJacksonsTreeModelOnGeneratedRecords() throws Exception {
+        // expected paths and types: a walk of Jackson's own JsonNode tree (ObjectMapper.readTree), the
+        // general-purpose reference; record shapes generated from a fixed seed.
+        java.util.Random random = new java.util.Random(20261202L);
+        com.fasterxml.jackson.databind.ObjectMapper mapper = new com.fasterxml.jackson.databind.ObjectMapper();
+        for (int file = 0; file < 40; file++) {
+            StringBuilder ndjson = new StringBuilder();
+            List<String> records = new java.util.ArrayList<>();
+            for (int n = 0; n < 1 + random.nextInt(30); n++) {
+                String record = randomObject(random, 0);
+                records.add(record);
+                ndjson.append(record).append('\n');
+            }
+            Map<String, java.util.TreeSet<String>> types = new java.util.LinkedHashMap<>();
+            Map<String, Integer> seen = new java.util.HashMap<>();
+            for (String record : records) {
+                java.util.Set<String> here = new java.util.HashSet<>();
+                treeWalk("", mapper.readTree(record), types, here);
+                here.forEach(p -> seen.merge(p, 1, Integer::sum));
+            }
+            List<ColumnDef> expected = new java.util.ArrayList<>();
+            types.forEach((path, t) -> {
+                java.util.TreeSet<String> present = new java.util.TreeSet<>(t);
+                present.remove("null");
+                String type = present.size() == 1 ? present.first() : present.isEmpty() ? "text" : "mixed";
+                expected.add(new ColumnDef(path, type, t.contains("null") || seen.get(path) < records.size()));
+            });
+            Reading lines = reader.read(whole("f" + file + ".ndjson", ndjson.toString()));
+            Reading array = reader.read(whole("f" + file + ".json", "[" + String.join(",", records) + "]"));
+            assertThat(lines.columns()).as("file %d as NDJSON", file).isEqualTo(expected);
+            assertThat(array.columns()).as("file %d as an array", file).isEqualTo(expected);
+            assertThat(array.rowCount()).isEqualTo((long) records.size());
+        }
+    }
+
+    private static final String[] KEYS = {"id", "site", "gps", "tags", "when", "level"};
+
+    private static String randomObject(java.util.Random random, int depth) {
+        StringBuilder b = new StringBuilder("{");
+        int fields = random.nextInt(4);
+        java.util.Set<String> used = new java.util.HashSet<>();
+        for (int i = 0; i < fields; i++) {
+            String key = KEYS[random.nextInt(KEYS.length)];
+            if (!used.add(key)) {
+                continue;
+            }
+            if (b.length() > 1) {
+                b.append(',');
+            }
+            b.append('"').append(key).append("\":").append(randomValue(random, depth));
+        }
+        return b.append('}').toString();
+    }
+
+    private static String randomValue(java.util.Random random, int depth) {
+        return switch (random.nextInt(depth < 2 ? 9 : 7)) {
+            case 0 -> "null";
+            case 1 -> random.nextBoolean() ? "true" : "false";
+            case 2 -> Integer.toString(random.nextInt(1000) - 500);
+            case 3 -> (random.nextInt(1000) / 10.0) + "";
+            case 4 -> "\"2026-0" + (1 + random.nextInt(9)) + "-1" + random.nextInt(10) + "\"";
+            case 5 -> "\"2026-03-04T05:06:07Z\"";
+            case 6 -> "\"plain\"";
+            case 7 -> randomObject(random, depth + 1);
+            default -> {
+                StringBuilder b = new StringBuilder("[");
+                for (int i = 0, n = random.nextInt(3); i < n; i++) {
+                    b.append(i > 0 ? "," : "").append(randomValue(random, depth + 1));
+                }
+                yield b.append(']').toString();
+            }
+        };
+    }
+
+    private static void treeWalk(String prefix, com.fasterxml.jackson.databind.JsonNode node,
+            Map<String, java.util.TreeSet<String>> types, java.util.Set<String> here) {
+        if (node.isObject()) {
+            node.fields().forEachRemaining(f -> treeWalk(prefix.isEmpty() ? f.getKey() : prefix + "." + f.getKey(), f.getValue(), types, here));
+            return;
+        }
+        if (node.isArray()) {
+            if (node.isEmpty()) {
+                types.computeIfAbsent(prefix + "[]", k -> new java.util.TreeSet<>()).add("null");
+                here.add(prefix + "[]");
+            }
+            node.forEach(e -> treeWalk(prefix + "[]", e, types, here));
+            return;
+        }
+        String path = prefix.isEmpty() ? "value" : prefix;
+        String type = node.isNull() ? "null" : node.isBoolean() ? "boolean" : node.isIntegralNumber() ? "integer"
+                : node.isNumber() ? "decimal" : JsonRecordsReader.isoTemporal(node.asText());
+        types.computeIfAbsent(path, k -> new java.util.TreeSet<>()).add(type);
+        here.add(path);
+    }
 }
