@@ -117,7 +117,7 @@ public final class Catalog implements AutoCloseable {
     public HarvestSummary harvestFolder(Path folder, boolean full, boolean sampling, HarvestProgress progress)
             throws IOException {
         FolderHarvester.Options options = harvestOptions(full).withSampling(sampling);
-        HarvestSummary summary = new FolderHarvester(ingestor, sources, journal, reader, FormatRegistry.standard(),
+        HarvestSummary summary = new FolderHarvester(ingestor, sources, journal, reader, FormatRegistry.forHarvest(),
                 options, new ScriptLineage(reader)).harvest(folder, progress);
         return withPolicyFile(folder, summary);
     }
@@ -173,7 +173,7 @@ public final class Catalog implements AutoCloseable {
             HarvestProgress progress) throws IOException {
         java.util.Optional<Path> root = backend.localRoot();
         ScriptLineage scripts = root.isPresent() ? new ScriptLineage(reader) : null;
-        HarvestSummary summary = new FolderHarvester(ingestor, sources, journal, reader, FormatRegistry.standard(), options,
+        HarvestSummary summary = new FolderHarvester(ingestor, sources, journal, reader, FormatRegistry.forHarvest(), options,
                 scripts).harvest(backend, sourceName, progress);
         return root.isPresent() ? withPolicyFile(root.get(), summary) : summary;
     }

@@ -11,6 +11,7 @@ import org.headwater.harvest.format.csv.CsvSniff;
 import org.headwater.harvest.format.csv.CsvSniffer;
 import org.headwater.harvest.format.csv.LogicalType;
 import org.headwater.harvest.format.csv.NotDelimitedTextException;
+import org.headwater.harvest.format.csv.ShapeMemory;
 import org.headwater.model.ColumnDef;
 import org.headwater.model.DatasetKind;
 
@@ -28,6 +29,17 @@ public final class DelimitedTextReader implements FormatReader {
             Set.of(LogicalType.INTEGER, LogicalType.DECIMAL, LogicalType.DATE, LogicalType.TIMESTAMP, LogicalType.BOOLEAN);
 
     private final CsvSniffer sniffer = new CsvSniffer();
+    private final ShapeMemory memory;
+
+    /** A reader that sniffs every file in full. */
+    public DelimitedTextReader() {
+        this(ShapeMemory.NONE);
+    }
+
+    /** A reader that reuses the shapes of earlier files of {@code memory} where they fit. */
+    public DelimitedTextReader(ShapeMemory memory) {
+        this.memory = memory;
+    }
 
     @Override
     public boolean accepts(Sample sample) {
@@ -66,7 +78,7 @@ public final class DelimitedTextReader implements FormatReader {
     public Reading read(Sample sample) throws UnreadableFileException {
         CsvSniff sniff;
         try {
-            sniff = sniffer.sniff(sample.head(), sample.complete(), sample.size());
+            sniff = sniffer.sniff(sample.head(), sample.complete(), sample.size(), memory);
         } catch (NotDelimitedTextException e) {
             throw new UnreadableFileException(kind(e), e.getMessage());
         }

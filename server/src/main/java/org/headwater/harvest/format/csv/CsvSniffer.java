@@ -33,11 +33,21 @@ public final class CsvSniffer {
    */
   public CsvSniff sniff(byte[] head, boolean wholeFile, long fileSize)
       throws NotDelimitedTextException {
+    return sniff(head, wholeFile, fileSize, ShapeMemory.NONE);
+  }
+
+  /**
+   * Sniffs a file, reading it with a shape learnt from an earlier file of {@code memory} when that
+   * shape fits it (see {@link ShapeMemory}), and teaching the memory this file's shape otherwise.
+   */
+  public CsvSniff sniff(byte[] head, boolean wholeFile, long fileSize, ShapeMemory memory)
+      throws NotDelimitedTextException {
     if (head == null) {
       throw new NotDelimitedTextException(NotDelimitedTextException.Reason.EMPTY, "no bytes");
     }
     try {
-      return new Run(head, wholeFile || fileSize >= 0 && fileSize == head.length, fileSize).sniff();
+      return new Run(head, wholeFile || fileSize >= 0 && fileSize == head.length, fileSize, memory)
+          .sniff();
     } catch (RuntimeException | StackOverflowError e) {
       throw new NotDelimitedTextException(NotDelimitedTextException.Reason.UNEXPECTED,
           "detector failure: " + e, e);
@@ -49,12 +59,14 @@ public final class CsvSniffer {
     private final byte[] head;
     private final boolean complete;
     private final long fileSize;
+    private final ShapeMemory memory;
     private final List<String> warnings = new ArrayList<>();
 
-    Run(byte[] head, boolean complete, long fileSize) {
+    Run(byte[] head, boolean complete, long fileSize, ShapeMemory memory) {
       this.head = head;
       this.complete = complete;
       this.fileSize = fileSize;
+      this.memory = memory;
     }
 
     CsvSniff sniff() throws NotDelimitedTextException {
@@ -79,18 +91,11 @@ public final class CsvSniffer {
             "no table: only blank or comment lines");
       }
       boolean sampleAtEnd = decodedAll && sampleEnd == text.length();
-      DialectScore best = DialectDetector.detect(text, leading.offset(), sampleEnd, sampleAtEnd,
-          limits.scoringRows(), leading.forcedDelimiter());
-      if (!best.parsed().records().isEmpty() && (LayoutDetector.modalWidth(best.parsed().records()) == 1
-          || !steady(best.parsed().records()) || wordsAtSpaces(best))) {
-        // One column of values (that may hold spaces): no candidate splits it steadily, a
-        // delimiter that splits only some lines is none, and spaces that split only words
-        // (few numbers or dates, no quoted cell) are the spaces inside labels (our rules).
-        DialectScore single = oneColumn(text, leading.offset(), sampleEnd, sampleAtEnd);
-        if (single != null) {
-          best = single;
-        }
-      }
+      String shapeKey = leading.offset() == 0 && leading.forcedDelimiter() == 0
+          && memory.enabled() ? ShapeMemory.key(charset, encoding.bom(), text) : null;
+      ShapeMemory.Shape known = memory.recall(shapeKey);
+      DialectScore recalled = known == null ? null : refit(known, text, sampleEnd, sampleAtEnd);
+      DialectScore best = recalled != null ? recalled : detect(text, leading, sampleEnd, sampleAtEnd);
       Dialect dialect = best.dialect();
       List<CsvRecord> scored = best.parsed().records();
       if (scored.isEmpty()) {
@@ -101,8 +106,18 @@ public final class CsvSniffer {
 
       NumberFormat numbers = NumberFormatDetector.detect(
           scored.subList(Math.min(1, scored.size()), scored.size()), dialect.delimiter());
-      TableLayout layout = TableLocator.locate(text, scored, width, numbers.convention(),
-          warnings);
+      int warned = warnings.size();
+      // A remembered header stands for this file's first line too; a units row under it does not
+      // come with the memory (its sibling had none), so such a file is located in full.
+      boolean unitsRow = recalled != null && scored.size() > 2 && HeaderDetector.isUnitsRow(
+          scored.get(1), scored.subList(2, scored.size()), width, numbers.convention());
+      TableLayout layout = recalled != null && !unitsRow
+          ? new TableLayout(width, true, 0, scored.get(0).end(), known.names())
+          : TableLocator.locate(text, scored, width, numbers.convention(), warnings);
+      if (recalled == null && shapeKey != null && plain(best, layout, width, warned)) {
+        memory.remember(shapeKey, new ShapeMemory.Shape(dialect, ShapeMemory.marks(text, 0,
+            sampleEnd), width, scored.get(0).cells(), layout.names()));
+      }
 
       // When the scored sample is all the decoded text, its records are the data rows too.
       boolean scoredAll = sampleEnd == text.length() && scored.size() < limits.scoringRows()
@@ -132,6 +147,71 @@ public final class CsvSniffer {
           layout.header(), layout.skipLines(), data.footer(), numbers.convention().decimal(),
           numbers.thousandsSeparator(), columns, data.rowCount(), complete,
           data.profiled().size(), warnings);
+    }
+
+    /** The full detection: every candidate dialect scored, then the one-column readings weighed. */
+    private DialectScore detect(String text, LeadingLines leading, int sampleEnd,
+        boolean sampleAtEnd) {
+      DialectScore best = DialectDetector.detect(text, leading.offset(), sampleEnd, sampleAtEnd,
+          limits.scoringRows(), leading.forcedDelimiter());
+      if (!best.parsed().records().isEmpty() && (LayoutDetector.modalWidth(best.parsed().records()) == 1
+          || !steady(best.parsed().records()) || wordsAtSpaces(best))) {
+        // One column of values (that may hold spaces): no candidate splits it steadily, a
+        // delimiter that splits only some lines is none, and spaces that split only words
+        // (few numbers or dates, no quoted cell) are the spaces inside labels (our rules).
+        DialectScore single = oneColumn(text, leading.offset(), sampleEnd, sampleAtEnd);
+        if (single != null) {
+          best = single;
+        }
+      }
+      return best;
+    }
+
+    /**
+     * The sample parsed under a remembered shape, or null when the shape does not fit it as
+     * exactly as {@link ShapeMemory} asks: same marks, no broken quoting rule, every record of the
+     * remembered width, the remembered header first.
+     */
+    private DialectScore refit(ShapeMemory.Shape shape, String text, int sampleEnd,
+        boolean sampleAtEnd) {
+      if (ShapeMemory.marks(text, 0, sampleEnd) != shape.marks()) {
+        return null;
+      }
+      ParsedRecords parsed = new CsvParser(shape.dialect()).parse(text, 0, sampleEnd,
+          limits.scoringRows(), sampleAtEnd);
+      List<CsvRecord> records = parsed.records();
+      if (parsed.irregularities() != 0 || records.size() < 2
+          || !records.get(0).cells().equals(shape.headerCells())) {
+        return null;
+      }
+      for (CsvRecord record : records) {
+        if (record.width() != shape.width()) {
+          return null;
+        }
+      }
+      memory.fitted();
+      return new DialectScore(shape.dialect(), Double.NaN, Double.NaN, Double.NaN, parsed);
+    }
+
+    /**
+     * Whether a fully sniffed shape is of the plain kind {@link ShapeMemory} keeps: two columns
+     * or more, not split at spaces, no broken quoting rule, every scored record of the table's
+     * width, the header on the first line and data from the next, and nothing the locator had to
+     * warn about.
+     */
+    private boolean plain(DialectScore best, TableLayout layout, int width, int warned) {
+      List<CsvRecord> records = best.parsed().records();
+      if (width < 2 || best.dialect().delimiter() == ' ' || best.parsed().irregularities() != 0
+          || records.size() < 2 || !layout.header() || layout.skipLines() != 0
+          || layout.dataStart() != records.get(0).end() || warnings.size() != warned) {
+        return false;
+      }
+      for (CsvRecord record : records) {
+        if (record.width() != width) {
+          return false;
+        }
+      }
+      return true;
     }
 
     /**
