@@ -86,24 +86,34 @@ public final class JsonRecordsReader implements FormatReader {
     }
 
     private static void readLines(String text, boolean complete, Collected collected) throws UnreadableFileException {
-        String[] lines = text.split("\r?\n");
-        for (int i = 0; i < lines.length && collected.records < MAX_RECORDS; i++) {
-            String line = lines[i].strip();
-            if (line.isEmpty()) {
-                continue;
+        // One parser per line over a shared char array: no String per line, no regular expression.
+        char[] chars = text.toCharArray();
+        int lineNumber = 0;
+        for (int start = 0; start < chars.length && collected.records < MAX_RECORDS; ) {
+            int end = start;
+            while (end < chars.length && chars[end] != '\n') {
+                end++;
             }
-            try (JsonParser parser = MAPPER.getFactory().createParser(line)) {
-                // As ObjectMapper.readTree reads a line: its first value, whatever follows it.
-                if (parser.nextToken() == null) {
-                    throw new IOException("no JSON value");
-                }
-                collected.add(parser);
-            } catch (IOException e) {
-                boolean lastOfCutSample = !complete && i == lines.length - 1;
-                if (!lastOfCutSample) {
-                    throw new UnreadableFileException("invalid", "Line " + (i + 1) + " is not valid JSON");
+            lineNumber++;
+            boolean last = end >= chars.length;
+            int from = start;
+            while (from < end && Character.isWhitespace(chars[from])) {
+                from++;
+            }
+            if (from < end) {
+                try (JsonParser parser = MAPPER.getFactory().createParser(chars, from, end - from)) {
+                    // As ObjectMapper.readTree reads a line: its first value, whatever follows it.
+                    if (parser.nextToken() == null) {
+                        throw new IOException("no JSON value");
+                    }
+                    collected.add(parser);
+                } catch (IOException e) {
+                    if (complete || !last) {
+                        throw new UnreadableFileException("invalid", "Line " + lineNumber + " is not valid JSON");
+                    }
                 }
             }
+            start = end + 1;
         }
     }
 
