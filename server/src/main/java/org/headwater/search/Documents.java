@@ -145,15 +145,20 @@ final class Documents {
     }
 
     static Document column(DatasetDoc d, ColumnView c) {
+        return column(d, c, null);
+    }
+
+    /** A column's document; its short texts' tokens come from {@code tokens} when given (see {@link RepeatedTokens}). */
+    static Document column(DatasetDoc d, ColumnView c, RepeatedTokens tokens) {
         IndexEntry e = d.entry();
         String name = e.name() + "#" + c.name();
         Document doc = common(key("column", e.id()) + ":" + c.ordinal(), "column", COLUMN, "column", e.id(), e.id(),
-                e.uri() + "#" + c.name(), c.name());
+                e.uri() + "#" + c.name(), c.name(), tokens);
         doc.add(new StringField(NAME_EXACT, exactForm(name), Field.Store.NO));
         stored(doc, "display", name);
         stored(doc, "dataset_name", e.name());
-        text(doc, IN_DATASET, e.name());
-        text(doc, "type", c.type());
+        text(doc, IN_DATASET, e.name(), tokens, false);
+        text(doc, "type", c.type(), tokens, true);
         text(doc, "tags", String.join("\n", e.tags()));
         facet(doc, "format", e.format());
         facet(doc, "source", e.source());
@@ -188,29 +193,50 @@ final class Documents {
 
     private static Document common(String key, String family, int familyCode, String kind, long id, long rankId,
             String uri, String name) {
+        return common(key, family, familyCode, kind, id, rankId, uri, name, null);
+    }
+
+    private static Document common(String key, String family, int familyCode, String kind, long id, long rankId,
+            String uri, String name, RepeatedTokens tokens) {
         Document doc = new Document();
         doc.add(new StringField(KEY, key, Field.Store.YES));
         doc.add(new StringField(FAMILY, family, Field.Store.NO));
         doc.add(new StringField(KIND, kind, Field.Store.YES));
         // People type the kind as a word: "nitrate figure", "summary script".
-        doc.add(new TextField("kind_words", kind.replace('_', ' '), Field.Store.NO));
+        doc.add(tokens == null ? new TextField("kind_words", kind.replace('_', ' '), Field.Store.NO)
+                : tokens.field("kind_words", kind.replace('_', ' '), true));
         doc.add(new SortedSetDocValuesFacetField("kind", kind));
         doc.add(new NumericDocValuesField(RANK_ID, rankId));
         doc.add(new NumericDocValuesField(FAMILY_CODE, familyCode));
         doc.add(new NumericDocValuesField(FAMILY_ORDER, ORDER_OF_FAMILY[familyCode]));
         doc.add(new StoredField("id", id));
         doc.add(new StoredField("uri", uri));
-        doc.add(new TextField("name", name, Field.Store.YES));
+        if (tokens == null) {
+            doc.add(new TextField("name", name, Field.Store.YES));
+        } else {
+            doc.add(new StoredField("name", name));
+            doc.add(tokens.field("name", name, true));
+        }
         doc.add(new StringField(NAME_EXACT, exactForm(name), Field.Store.NO));
         doc.add(new StringField(NAME_EXACT, exactForm(baseName(name)), Field.Store.NO));
         // The name's words stemmed, so "cleaned" finds visits_clean.
-        doc.add(new TextField("stems", name, Field.Store.NO));
+        doc.add(tokens == null ? new TextField("stems", name, Field.Store.NO) : tokens.field("stems", name, true));
         return doc;
     }
 
     private static void text(Document doc, String field, String value) {
         if (value != null && !value.isBlank()) {
             doc.add(new TextField(field, value, Field.Store.YES));
+        }
+    }
+
+    /** As {@link #text(Document, String, String)}, the tokens replayed from {@code tokens} when given (see {@link RepeatedTokens#field}). */
+    private static void text(Document doc, String field, String value, RepeatedTokens tokens, boolean shared) {
+        if (tokens == null) {
+            text(doc, field, value);
+        } else if (value != null && !value.isBlank()) {
+            doc.add(new StoredField(field, value));
+            doc.add(tokens.field(field, value, shared));
         }
     }
 

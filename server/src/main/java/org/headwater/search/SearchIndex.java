@@ -76,6 +76,8 @@ public final class SearchIndex implements ChangeListener, AutoCloseable {
     private final IndexWriter writer;
     private final SearcherManager searchers;
     private final SearchSource source;
+    /** Column documents repeat their names, types and dataset's name: analysed once, replayed after. */
+    private final RepeatedTokens repeated = new RepeatedTokens(Documents.indexAnalyzer());
     private static final LuceneQueries QUERIES = new LuceneQueries();
     private final DirectSpellChecker spelling = new DirectSpellChecker();
     private volatile Ranks ranks = Ranks.NONE;
@@ -449,7 +451,7 @@ public final class SearchIndex implements ChangeListener, AutoCloseable {
         dataset.add(new org.apache.lucene.document.StringField(OF_DATASET, of, org.apache.lucene.document.Field.Store.NO));
         writer.addDocument(build(dataset));
         for (ColumnView column : doc.columns()) {
-            Document c = Documents.column(doc, column);
+            Document c = Documents.column(doc, column, repeated);
             c.add(new org.apache.lucene.document.StringField(OF_DATASET, of, org.apache.lucene.document.Field.Store.NO));
             writer.addDocument(build(c));
         }
