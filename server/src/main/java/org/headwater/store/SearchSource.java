@@ -61,28 +61,42 @@ public final class SearchSource {
         if (ids.isEmpty()) {
             return List.of();
         }
+        Set<Long> wanted = ids instanceof Set<Long> set ? set : new HashSet<>(ids);
         Map<Long, List<ColumnView>> columns = new HashMap<>();
         db.select(SCHEMA_VERSION.DATASET_ID, SCHEMA_COLUMN.ORDINAL, SCHEMA_COLUMN.NAME, SCHEMA_COLUMN.DATA_TYPE,
                         SCHEMA_COLUMN.NULLABLE)
                 .from(SCHEMA_COLUMN).join(SCHEMA_VERSION).on(SCHEMA_COLUMN.SCHEMA_VERSION_ID.eq(SCHEMA_VERSION.ID))
-                .where(SCHEMA_VERSION.DATASET_ID.in(ids), SCHEMA_VERSION.VALID_TO.isNull())
+                .where(among(SCHEMA_VERSION.DATASET_ID, wanted), SCHEMA_VERSION.VALID_TO.isNull())
                 .orderBy(SCHEMA_VERSION.DATASET_ID, SCHEMA_COLUMN.ORDINAL)
-                .forEach(r -> columns.computeIfAbsent(r.value1(), k -> new ArrayList<>())
-                        .add(new ColumnView(r.value2(), r.value3(), r.value4(), r.value5())));
+                .forEach(r -> {
+                    if (wanted.contains(r.value1())) {
+                        columns.computeIfAbsent(r.value1(), k -> new ArrayList<>())
+                                .add(new ColumnView(r.value2(), r.value3(), r.value4(), r.value5()));
+                    }
+                });
         Map<Long, List<String>> titles = new HashMap<>();
         db.select(DATASET_STATE.DATASET_ID, DATASET_STATE.DETAILS).from(DATASET_STATE)
-                .where(DATASET_STATE.DATASET_ID.in(ids), DATASET_STATE.VALID_TO.isNull(), DATASET_STATE.DETAILS.isNotNull())
-                .forEach(r -> titles.put(r.value1(), List.copyOf(new java.util.LinkedHashSet<>(titles(r.value2())))));
+                .where(among(DATASET_STATE.DATASET_ID, wanted), DATASET_STATE.VALID_TO.isNull(),
+                        DATASET_STATE.DETAILS.isNotNull())
+                .forEach(r -> {
+                    if (wanted.contains(r.value1())) {
+                        titles.put(r.value1(), List.copyOf(new java.util.LinkedHashSet<>(titles(r.value2()))));
+                    }
+                });
         Map<Long, List<String>> readBy = new HashMap<>();
         Map<Long, List<String>> writtenBy = new HashMap<>();
         db.selectDistinct(SCRIPT_REFERENCE.DATASET_ID, SCRIPT_REFERENCE.DIRECTION, SCRIPT.NAME)
                 .from(SCRIPT_REFERENCE)
                 .join(SCRIPT_ANALYSIS).on(SCRIPT_ANALYSIS.ID.eq(SCRIPT_REFERENCE.ANALYSIS_ID), SCRIPT_ANALYSIS.VALID_TO.isNull())
                 .join(SCRIPT).on(SCRIPT.ID.eq(SCRIPT_ANALYSIS.SCRIPT_ID))
-                .where(SCRIPT_REFERENCE.DATASET_ID.in(ids))
+                .where(among(SCRIPT_REFERENCE.DATASET_ID, wanted))
                 .orderBy(SCRIPT.NAME)
-                .forEach(r -> (r.value2().equals("read") ? readBy : writtenBy)
-                        .computeIfAbsent(r.value1(), k -> new ArrayList<>()).add(r.value3()));
+                .forEach(r -> {
+                    if (wanted.contains(r.value1())) {
+                        (r.value2().equals("read") ? readBy : writtenBy)
+                                .computeIfAbsent(r.value1(), k -> new ArrayList<>()).add(r.value3());
+                    }
+                });
         List<DatasetDoc> docs = new ArrayList<>();
         // The column names are read once, above, for both the entries and the column documents.
         Map<Long, List<String>> names = new HashMap<>();
@@ -93,6 +107,23 @@ public final class SearchSource {
                     readBy.getOrDefault(id, List.of()), writtenBy.getOrDefault(id, List.of())));
         }
         return docs;
+    }
+
+    /**
+     * The ids as a condition on {@code field}: a range when they are dense, as the batches of a rebuild are, else
+     * an IN list. H2 checks a long IN list against each row it reads, value by value, which made reading the
+     * columns of a rebuild's batches about a fifth of its time; a range is one index scan. Callers drop the rows
+     * of ids inside the range that were not asked for.
+     */
+    private static org.jooq.Condition among(org.jooq.Field<Long> field, Set<Long> ids) {
+        long low = Long.MAX_VALUE;
+        long high = Long.MIN_VALUE;
+        for (long id : ids) {
+            low = Math.min(low, id);
+            high = Math.max(high, id);
+        }
+        // Dense: at most one id in two of the range missing (our threshold).
+        return ids.size() > 16 && high - low < 2L * ids.size() ? field.between(low, high) : field.in(ids);
     }
 
     /** Documents for the present scripts among {@code ids}. */
