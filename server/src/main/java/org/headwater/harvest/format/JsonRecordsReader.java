@@ -172,7 +172,13 @@ public final class JsonRecordsReader implements FormatReader {
 
     /** JSON value types in alphabetical order, the order a field's types are listed in; bit i is TYPES[i]. */
     private static final String[] TYPES = {"boolean", "date", "decimal", "integer", "null", "text", "timestamp"};
+    private static final int BOOLEAN = 0;
+    private static final int DATE = 1;
+    private static final int DECIMAL = 2;
+    private static final int INTEGER = 3;
     private static final int NULL = 4;
+    private static final int TEXT = 5;
+    private static final int TIMESTAMP = 6;
 
     /** One field path: the JSON types seen at it and in how many records it occurs. */
     private static final class Field {
@@ -293,14 +299,14 @@ public final class JsonRecordsReader implements FormatReader {
         private static int typeOf(JsonParser parser, JsonToken token) throws IOException {
             return switch (token) {
                 case VALUE_NULL -> NULL;
-                case VALUE_TRUE, VALUE_FALSE -> 0;
-                case VALUE_NUMBER_INT -> 3;
-                case VALUE_NUMBER_FLOAT -> 2;
+                case VALUE_TRUE, VALUE_FALSE -> BOOLEAN;
+                case VALUE_NUMBER_INT -> INTEGER;
+                case VALUE_NUMBER_FLOAT -> DECIMAL;
                 // Inside JSON a quoted "12" is still a string; only ISO-8601 dates and times are read out of strings.
                 case VALUE_STRING -> switch (isoTemporal(parser.getText())) {
-                    case "date" -> 1;
-                    case "timestamp" -> 6;
-                    default -> 5;
+                    case "date" -> DATE;
+                    case "timestamp" -> TIMESTAMP;
+                    default -> TEXT;
                 };
                 default -> throw new IOException("unexpected token " + token);
             };
