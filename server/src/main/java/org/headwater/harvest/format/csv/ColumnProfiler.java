@@ -152,7 +152,49 @@ final class ColumnProfiler {
   private static BigDecimal number(String value, NumberConvention convention) {
     boolean plain = convention.decimal() == '.' && value.indexOf(',') < 0
         && (convention.group() == null || value.indexOf(convention.group()) < 0);
-    return new BigDecimal(plain ? value
-        : NumberScanner.normalize(value, 0, value.length(), convention));
+    if (plain) {
+      BigDecimal small = smallDecimal(value);
+      return small != null ? small : new BigDecimal(value);
+    }
+    return new BigDecimal(NumberScanner.normalize(value, 0, value.length(), convention));
+  }
+
+  /**
+   * {@code new BigDecimal(value)} for the common case, an optional sign, digits and an optional '.'
+   * with digits, 18 digits at most, without parsing a string into a BigInteger: the same unscaled
+   * value and scale, so the same order and the same equality. Null for anything else (exponents,
+   * longer numbers), which the caller hands to {@code BigDecimal(String)}.
+   */
+  static BigDecimal smallDecimal(String value) {
+    int n = value.length();
+    int i = 0;
+    boolean negative = false;
+    if (i < n && (value.charAt(i) == '-' || value.charAt(i) == '+')) {
+      negative = value.charAt(i) == '-';
+      i++;
+    }
+    long unscaled = 0;
+    int digits = 0;
+    int scale = -1;
+    for (; i < n; i++) {
+      char c = value.charAt(i);
+      if (c >= '0' && c <= '9') {
+        if (++digits > 18) {
+          return null;
+        }
+        unscaled = unscaled * 10 + (c - '0');
+        if (scale >= 0) {
+          scale++;
+        }
+      } else if (c == '.' && scale < 0) {
+        scale = 0;
+      } else {
+        return null;
+      }
+    }
+    if (digits == 0) {
+      return null;
+    }
+    return BigDecimal.valueOf(negative ? -unscaled : unscaled, Math.max(0, scale));
   }
 }

@@ -29,7 +29,8 @@ final class NumberFormatDetector {
         int from = Cells.trimStart(cell);
         int to = Cells.trimEnd(cell, from);
         // Cells of digits alone read the same in every convention: they cannot decide.
-        if (from == to || !looksNumeric(cell, from, to) || digitsOnly(cell, from, to)) {
+        if (from == to || !looksNumeric(cell, from, to) || digitsOnly(cell, from, to)
+            || !readableByAny(cell, from, to)) {
           continue;
         }
         for (int k = 0; k < counts.length; k++) {
@@ -60,6 +61,27 @@ final class NumberFormatDetector {
   private static boolean digitsOnly(CharSequence s, int from, int to) {
     for (int i = from; i < to; i++) {
       if (!NumberScanner.isDigit(s.charAt(i))) {
+        return false;
+      }
+    }
+    return true;
+  }
+
+  /**
+   * Whether some candidate convention could read the cell: {@link NumberScanner} takes only digits,
+   * the separators of the candidates ({@code . , ' } and the space family), an exponent mark, and a sign at the
+   * start or after the exponent mark. A date ({@code 2026-01-10}) or a code fails here once instead
+   * of once per convention.
+   */
+  static boolean readableByAny(CharSequence s, int from, int to) {
+    for (int i = from; i < to; i++) {
+      char c = s.charAt(i);
+      if (c >= '0' && c <= '9' || c == '.' || c == ',' || c == '\'' || c == ' ' || c == '\u00A0'
+          || c == '\u202F' || c == 'e' || c == 'E') {
+        continue;
+      }
+      boolean sign = c == '-' || c == '+';
+      if (!sign || i != from && s.charAt(i - 1) != 'e' && s.charAt(i - 1) != 'E') {
         return false;
       }
     }
