@@ -39,8 +39,11 @@ final class RepeatedTokens {
     private final Analyzer analyzer;
     private final ConcurrentHashMap<String, Tokens> byFieldAndText = new ConcurrentHashMap<>();
     /** Per indexing thread, the last text of each field not shared: a dataset's name, for its columns in a row. */
-    private final ThreadLocal<java.util.Map<String, Object[]>> last =
+    private final ThreadLocal<java.util.Map<String, LastText>> last =
             ThreadLocal.withInitial(java.util.HashMap::new);
+
+    /** The last text of a field on one thread, with its tokens. */
+    private record LastText(String text, Tokens tokens) {}
 
     RepeatedTokens(Analyzer analyzer) {
         this.analyzer = analyzer;
@@ -71,12 +74,12 @@ final class RepeatedTokens {
     }
 
     private Tokens lastTokens(String name, String text) {
-        Object[] entry = last.get().get(name);
-        if (entry != null && entry[0].equals(text)) {
-            return (Tokens) entry[1];
+        LastText entry = last.get().get(name);
+        if (entry != null && entry.text().equals(text)) {
+            return entry.tokens();
         }
         Tokens tokens = analyse(name, text);
-        last.get().put(name, new Object[] {text, tokens});
+        last.get().put(name, new LastText(text, tokens));
         return tokens;
     }
 

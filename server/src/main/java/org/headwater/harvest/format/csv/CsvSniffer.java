@@ -181,13 +181,9 @@ public final class CsvSniffer {
           limits.scoringRows(), sampleAtEnd);
       List<CsvRecord> records = parsed.records();
       if (parsed.irregularities() != 0 || records.size() < 2
-          || !records.get(0).cells().equals(shape.headerCells())) {
+          || !records.get(0).cells().equals(shape.headerCells())
+          || LayoutDetector.shareOfWidth(records, shape.width()) != 1.0) {
         return null;
-      }
-      for (CsvRecord record : records) {
-        if (record.width() != shape.width()) {
-          return null;
-        }
       }
       memory.fitted();
       return new DialectScore(shape.dialect(), Double.NaN, Double.NaN, Double.NaN, parsed);
@@ -201,17 +197,10 @@ public final class CsvSniffer {
      */
     private boolean plain(DialectScore best, TableLayout layout, int width, int warned) {
       List<CsvRecord> records = best.parsed().records();
-      if (width < 2 || best.dialect().delimiter() == ' ' || best.parsed().irregularities() != 0
-          || records.size() < 2 || !layout.header() || layout.skipLines() != 0
-          || layout.dataStart() != records.get(0).end() || warnings.size() != warned) {
-        return false;
-      }
-      for (CsvRecord record : records) {
-        if (record.width() != width) {
-          return false;
-        }
-      }
-      return true;
+      return width >= 2 && best.dialect().delimiter() != ' ' && best.parsed().irregularities() == 0
+          && records.size() >= 2 && layout.header() && layout.skipLines() == 0
+          && layout.dataStart() == records.get(0).end() && warnings.size() == warned
+          && LayoutDetector.shareOfWidth(records, width) == 1.0;
     }
 
     /**

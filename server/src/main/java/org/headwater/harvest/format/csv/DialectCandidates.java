@@ -26,13 +26,7 @@ final class DialectCandidates {
 
   /** The candidates for {@code text[from, to)}. */
   static List<Dialect> of(CharSequence text, int from, int to, char forcedDelimiter) {
-    boolean[] seen = new boolean[128];
-    for (int i = from; i < to; i++) {
-      char c = text.charAt(i);
-      if (c < 128) {
-        seen[c] = true;
-      }
-    }
+    boolean[] seen = seen(text, from, to);
     List<Character> delimiters = new ArrayList<>();
     if (forcedDelimiter != 0) {
       delimiters.add(forcedDelimiter);
@@ -60,6 +54,18 @@ final class DialectCandidates {
       }
     }
     return dialects;
+  }
+
+  /** Which ASCII characters occur in {@code text[from, to)}, by code. */
+  static boolean[] seen(CharSequence text, int from, int to) {
+    boolean[] seen = new boolean[128];
+    for (int i = from; i < to; i++) {
+      char c = text.charAt(i);
+      if (c < 128) {
+        seen[c] = true;
+      }
+    }
+    return seen;
   }
 
   /**

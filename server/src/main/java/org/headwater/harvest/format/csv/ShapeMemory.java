@@ -65,11 +65,11 @@ public final class ShapeMemory {
   }
 
   Shape recall(String key) {
-    return key == null || !enabled() ? null : shapes.get(key);
+    return key == null ? null : shapes.get(key);
   }
 
   void remember(String key, Shape shape) {
-    if (key != null && enabled() && shapes.size() < capacity) {
+    if (key != null && shapes.size() < capacity) {
       shapes.putIfAbsent(key, shape);
     }
   }
@@ -94,13 +94,7 @@ public final class ShapeMemory {
 
   /** A bit per character of {@link #MARKED} that occurs in {@code text[from, to)}. */
   static int marks(CharSequence text, int from, int to) {
-    boolean[] seen = new boolean[128];
-    for (int i = from; i < to; i++) {
-      char c = text.charAt(i);
-      if (c < 128) {
-        seen[c] = true;
-      }
-    }
+    boolean[] seen = DialectCandidates.seen(text, from, to);
     int marks = 0;
     for (int bit = 0; bit < MARKED.length(); bit++) {
       if (seen[MARKED.charAt(bit)]) {
