@@ -117,8 +117,8 @@ public final class Catalog implements AutoCloseable {
     public HarvestSummary harvestFolder(Path folder, boolean full, boolean sampling, HarvestProgress progress)
             throws IOException {
         FolderHarvester.Options options = harvestOptions(full).withSampling(sampling);
-        HarvestSummary summary = new FolderHarvester(ingestor, sources, journal, reader, FormatRegistry.forHarvest(),
-                options, new ScriptLineage(reader)).harvest(folder, progress);
+        HarvestSummary summary = new FolderHarvester(ingestor, sources, journal, reader,
+                FormatRegistry.forHarvest(options.sampling()), options, new ScriptLineage(reader)).harvest(folder, progress);
         return withPolicyFile(folder, summary);
     }
 
@@ -173,8 +173,8 @@ public final class Catalog implements AutoCloseable {
             HarvestProgress progress) throws IOException {
         java.util.Optional<Path> root = backend.localRoot();
         ScriptLineage scripts = root.isPresent() ? new ScriptLineage(reader) : null;
-        HarvestSummary summary = new FolderHarvester(ingestor, sources, journal, reader, FormatRegistry.forHarvest(), options,
-                scripts).harvest(backend, sourceName, progress);
+        HarvestSummary summary = new FolderHarvester(ingestor, sources, journal, reader,
+                FormatRegistry.forHarvest(options.sampling()), options, scripts).harvest(backend, sourceName, progress);
         return root.isPresent() ? withPolicyFile(root.get(), summary) : summary;
     }
 

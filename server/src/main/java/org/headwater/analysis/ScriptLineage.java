@@ -55,6 +55,20 @@ public final class ScriptLineage {
 
     /** The observations for one harvested folder. */
     public List<Observation> observe(Path root, long sourceId, String sourceName) throws IOException {
+        return observe(root, sourceId, sourceName, new WorkspaceAnalysis().analyze(root, AnalysisContext.defaults()));
+    }
+
+    /**
+     * The analysis of the given workspace scripts (relative paths in name order). It reads no store, so a
+     * harvest runs it while the data files are still being read, and hands it to {@link #observe(Path, long,
+     * String, List)} once they are in.
+     */
+    public static List<ScriptAnalysis> analyse(Path root, List<Path> scripts) {
+        return new WorkspaceAnalysis().analyze(root, scripts, AnalysisContext.defaults());
+    }
+
+    /** The observations for one harvested folder whose scripts were analysed already. */
+    public List<Observation> observe(Path root, long sourceId, String sourceName, List<ScriptAnalysis> analyses) {
         Map<String, String> names = reader.namesOfSource(sourceId);
         SuffixIndex suffixes = new SuffixIndex(names);
         Map<String, ScriptView> scripts = new LinkedHashMap<>();
@@ -65,7 +79,7 @@ public final class ScriptLineage {
         }
         List<Observation> out = new ArrayList<>();
         Set<StaticEdge> now = new HashSet<>();
-        for (ScriptAnalysis analysis : new WorkspaceAnalysis().analyze(root, AnalysisContext.defaults())) {
+        for (ScriptAnalysis analysis : analyses) {
             ScriptView script = scripts.get(root.resolve(analysis.script()).toUri().toString());
             if (script != null) {
                 scriptObservations(root, names, suffixes, script, analysis, out, now);

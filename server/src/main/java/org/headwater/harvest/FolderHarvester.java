@@ -25,6 +25,9 @@ import java.util.concurrent.Future;
 import org.headwater.harvest.FileInspector.Facts;
 import org.headwater.harvest.PartitionPatterns.Placement;
 import org.headwater.harvest.format.FormatRegistry;
+import org.headwater.analysis.ScriptLineage;
+import org.headwater.analysis.script.ScriptAnalysis;
+import org.headwater.analysis.script.WorkspaceAnalysis;
 import org.headwater.harvest.format.Reading;
 import org.headwater.ingest.Change;
 import org.headwater.ingest.HarvestJournal;
@@ -117,13 +120,13 @@ public final class FolderHarvester {
     private final CatalogReader reader;
     private final FileInspector inspector;
     private final Options options;
-    private final org.headwater.analysis.ScriptLineage scriptLineage;
+    private final ScriptLineage scriptLineage;
 
     /**
-     * @param scriptLineage the static analysis run after the files are in, or null to harvest files only
+     * @param scriptLineage the static analysis, applied once the files are in, or null to harvest files only
      */
     public FolderHarvester(Ingestor ingestor, Sources sources, HarvestJournal journal, CatalogReader reader,
-            FormatRegistry formats, Options options, org.headwater.analysis.ScriptLineage scriptLineage) {
+            FormatRegistry formats, Options options, ScriptLineage scriptLineage) {
         this.scriptLineage = scriptLineage;
         this.ingestor = ingestor;
         this.sources = sources;
@@ -178,9 +181,10 @@ public final class FolderHarvester {
                 }
             }
             List<StoredObject> files = run.tables(selected);
+            run.startAnalysis(files, pool);
             run.process(files, pool);
             run.readTables(pool);
-            run.assembleSets();
+            run.assembleSets(pool);
             run.removeVanished();
             run.analyseScripts(name);
             run.applyOwnersFile();
@@ -230,6 +234,10 @@ public final class FolderHarvester {
         int errors;
 
         final Map<String, List<StoredObject>> tableMembers = new TreeMap<>();
+        /** The scripts this listing found, relative to the root in name order, for the static analysis. */
+        List<Path> scriptPaths = List.of();
+        /** The static analysis, started on the pool ahead of the files when anything is to be read; or null. */
+        Future<List<ScriptAnalysis>> analysis;
 
         Run(StorageBackend backend, long sourceId, long harvestId, Map<String, KnownFile> known, HarvestProgress progress) {
             this.backend = backend;
@@ -261,6 +269,27 @@ public final class FolderHarvester {
         }
 
         /**
+         * Starts the static analysis of the listed scripts on the pool, ahead of the files, when any file
+         * is new or changed: it needs no store, so it runs while the files are read instead of after them.
+         * With nothing to read it is left to {@link #analyseScripts}, which then usually has nothing to do.
+         */
+        void startAnalysis(List<StoredObject> files, ExecutorService pool) {
+            Path root = backend.localRoot().orElse(null);
+            if (root == null || scriptLineage == null) {
+                return;
+            }
+            scriptPaths = files.stream().filter(f -> WorkspaceAnalysis.analysed(f.fileName()))
+                    .map(StoredObject::name).sorted().map(Path::of).toList();
+            boolean anyToRead = options.full() || files.stream().anyMatch(f -> {
+                KnownFile before = known.get(f.uri());
+                return before == null || !unchanged(before, f);
+            });
+            if (anyToRead) {
+                analysis = pool.submit(() -> ScriptLineage.analyse(root, scriptPaths));
+            }
+        }
+
+        /**
          * Each table folder becomes one dataset read from its own metadata (always read: logs are small,
          * and an unchanged table applies as no change).
          */
@@ -272,7 +301,7 @@ public final class FolderHarvester {
             }
             for (int i = 0; i < prefixes.size(); i++) {
                 String prefix = prefixes.get(i);
-                TableFolders.Result result = awaitTable(reading.get(i));
+                TableFolders.Result result = await(reading.get(i), "Reading a table");
                 String uri = backend.uriOf(prefix);
                 filesSeen += tableMembers.get(prefix).size();
                 datasets++;
@@ -309,7 +338,7 @@ public final class FolderHarvester {
                 next = submit(files, current.end(), placements, pool);
                 for (int i = 0; i < current.toRead().size(); i++) {
                     StoredObject f = current.toRead().get(i);
-                    Facts facts = await(current.reading().get(i));
+                    Facts facts = await(current.reading().get(i), "Reading a file");
                     if (facts.errorKind() != null) {
                         error(f.uri(), facts.errorKind(), facts.errorMessage());
                     }
@@ -411,18 +440,26 @@ public final class FolderHarvester {
          * Each set's own facts, from all its stored partitions (read now or earlier). Vanished partitions
          * are ended first, so that the union schema and totals count only members still present.
          */
-        void assembleSets() {
+        void assembleSets(ExecutorService pool) throws IOException {
             for (KnownFile file : known.values()) {
                 if (file.role() == FileRole.PARTITION && seen.get(FileRole.PARTITION).add(file.uri())) {
                     add(new Observation.PartitionGone(file.setUri(), file.uri()));
                 }
             }
             flush();
+            // Reading a set's partitions back and summing them needs only the store's reader: the sets are
+            // assembled on the pool, and applied here in their order.
+            List<Future<Observation>> assembled = new ArrayList<>();
             for (SetInfo set : sets.values()) {
-                long id = reader.findDatasets(set.uri()).get(0).id();
-                add(PartitionSetAssembler.assemble(set.uri(), set.name(), sourceId, set.keyNames(),
-                        reader.partitions(id, null)));
+                assembled.add(pool.submit(() -> {
+                    long id = reader.findDatasets(set.uri()).get(0).id();
+                    return PartitionSetAssembler.assemble(set.uri(), set.name(), sourceId, set.keyNames(),
+                            reader.partitions(id, null));
+                }));
                 seen.get(FileRole.DATASET).add(set.uri());
+            }
+            for (Future<Observation> set : assembled) {
+                add(await(set, "Assembling a partitioned set"));
             }
             flush();
         }
@@ -497,9 +534,14 @@ public final class FolderHarvester {
                 return;
             }
             try {
-                apply(scriptLineage.observe(root, sourceId, sourceName));
-            } catch (IOException | RuntimeException e) {
-                error(root.toUri().toString(), "analysis_failed", "Script analysis failed: " + e);
+                List<ScriptAnalysis> analyses = analysis != null ? analysis.get() : ScriptLineage.analyse(root, scriptPaths);
+                apply(scriptLineage.observe(root, sourceId, sourceName, analyses));
+            } catch (InterruptedException e) {
+                Thread.currentThread().interrupt();
+                error(root.toUri().toString(), "analysis_failed", "Script analysis interrupted");
+            } catch (ExecutionException | RuntimeException e) {
+                Throwable cause = e instanceof ExecutionException ? e.getCause() : e;
+                error(root.toUri().toString(), "analysis_failed", "Script analysis failed: " + cause);
             }
         }
 
@@ -532,18 +574,8 @@ public final class FolderHarvester {
         }
     }
 
-    private static TableFolders.Result awaitTable(Future<TableFolders.Result> future) throws IOException {
-        try {
-            return future.get();
-        } catch (InterruptedException e) {
-            Thread.currentThread().interrupt();
-            throw new IOException("Harvest interrupted", e);
-        } catch (ExecutionException e) {
-            throw new IOException("Reading a table failed unexpectedly", e.getCause());
-        }
-    }
-
-    private static Facts await(Future<Facts> future) throws IOException {
+    /** The result of work handed to the pool; {@code what} names the work in the error when it failed. */
+    private static <T> T await(Future<T> future, String what) throws IOException {
         try {
             return future.get();
         } catch (InterruptedException e) {
@@ -553,7 +585,7 @@ public final class FolderHarvester {
             if (e.getCause() instanceof java.io.UncheckedIOException u && u.getCause() instanceof StoreUnavailableException s) {
                 throw s;
             }
-            throw new IOException("Reading a file failed unexpectedly", e.getCause());
+            throw new IOException(what + " failed unexpectedly", e.getCause());
         }
     }
 

@@ -55,7 +55,15 @@ final class DatasetApplier {
             DatasetRecord d = tx.rows.dataset(uri);
             return d == null ? null : d.getId();
         }
-        return tx.db.select(DATASET.ID).from(DATASET).where(DATASET.URI.eq(uri)).fetchOne(DATASET.ID);
+        Long known = tx.datasetIds.get(uri);
+        if (known != null) {
+            return known;
+        }
+        Long id = tx.db.select(DATASET.ID).from(DATASET).where(DATASET.URI.eq(uri)).fetchOne(DATASET.ID);
+        if (id != null) {
+            tx.datasetIds.put(uri, id);
+        }
+        return id;
     }
 
     /** Finds or creates the dataset's identity row; only the name and kind may be corrected later. */
@@ -82,6 +90,7 @@ final class DatasetApplier {
                     .returningResult(DATASET.ID)
                     .fetchOne(DATASET.ID);
             tx.changed(Change.DATASET, id, "created", name);
+            tx.datasetIds.put(uri, id);
             return id;
         }
         boolean kindKnownBetter = kind != DatasetKind.OTHER && !kind.word().equals(existing.getKind());

@@ -33,30 +33,30 @@ final class ReferenceApplier {
                 .set(SCRIPT_ANALYSIS.WARNINGS, seen.warnings().isEmpty() ? null : Tx.truncate(Json.stringArray(seen.warnings()), 100000))
                 .set(SCRIPT_ANALYSIS.VALID_FROM, tx.now)
                 .returningResult(SCRIPT_ANALYSIS.ID).fetchOne(SCRIPT_ANALYSIS.ID);
-        for (Reference r : seen.references()) {
-            Long dataset = null;
-            if (r.datasetUri() != null) {
-                dataset = DatasetApplier.find(tx, r.datasetUri());
-                if (dataset == null) {
-                    dataset = DatasetApplier.identity(tx, r.datasetUri(), DatasetNames.fallbackName(r.datasetUri()),
-                            DatasetKind.OTHER, null);
-                }
+        if (!seen.references().isEmpty()) {
+            var insert = tx.db.insertInto(SCRIPT_REFERENCE, SCRIPT_REFERENCE.ANALYSIS_ID, SCRIPT_REFERENCE.DIRECTION,
+                    SCRIPT_REFERENCE.PATTERN, SCRIPT_REFERENCE.RESOLVED, SCRIPT_REFERENCE.DATASET_ID,
+                    SCRIPT_REFERENCE.FUNCTION_NAME, SCRIPT_REFERENCE.EXPRESSION, SCRIPT_REFERENCE.LINE_NO,
+                    SCRIPT_REFERENCE.COLUMN_NO, SCRIPT_REFERENCE.CELL, SCRIPT_REFERENCE.CONFIDENCE);
+            for (Reference r : seen.references()) {
+                insert = insert.values(analysis, r.direction(), r.pattern() == null ? null : Tx.truncate(r.pattern(), 2000),
+                        r.resolved(), datasetOf(tx, r), Tx.truncate(r.function(), 200), Tx.truncate(r.expression(), 4000),
+                        r.line(), r.column(), r.cell(), r.confidence());
             }
-            tx.db.insertInto(SCRIPT_REFERENCE)
-                    .set(SCRIPT_REFERENCE.ANALYSIS_ID, analysis)
-                    .set(SCRIPT_REFERENCE.DIRECTION, r.direction())
-                    .set(SCRIPT_REFERENCE.PATTERN, r.pattern() == null ? null : Tx.truncate(r.pattern(), 2000))
-                    .set(SCRIPT_REFERENCE.RESOLVED, r.resolved())
-                    .set(SCRIPT_REFERENCE.DATASET_ID, dataset)
-                    .set(SCRIPT_REFERENCE.FUNCTION_NAME, Tx.truncate(r.function(), 200))
-                    .set(SCRIPT_REFERENCE.EXPRESSION, Tx.truncate(r.expression(), 4000))
-                    .set(SCRIPT_REFERENCE.LINE_NO, r.line())
-                    .set(SCRIPT_REFERENCE.COLUMN_NO, r.column())
-                    .set(SCRIPT_REFERENCE.CELL, r.cell())
-                    .set(SCRIPT_REFERENCE.CONFIDENCE, r.confidence())
-                    .execute();
+            // One statement for all of a script's references: they were a statement each.
+            insert.execute();
         }
         tx.changed(Change.SCRIPT, script, "analysis", seen.references().size() + " references");
+    }
+
+    /** The dataset a resolved reference names, given an identity when no harvest has seen it yet; or null. */
+    private static Long datasetOf(Tx tx, Reference r) {
+        if (r.datasetUri() == null) {
+            return null;
+        }
+        Long dataset = DatasetApplier.find(tx, r.datasetUri());
+        return dataset != null ? dataset
+                : DatasetApplier.identity(tx, r.datasetUri(), DatasetNames.fallbackName(r.datasetUri()), DatasetKind.OTHER, null);
     }
 
     private static String fingerprint(ScriptReferencesSeen seen) {

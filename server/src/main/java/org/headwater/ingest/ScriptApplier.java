@@ -86,6 +86,17 @@ final class ScriptApplier {
 
     /** The id of a script by URI, or null; edges may name scripts that were never harvested. */
     static Long find(Tx tx, String uri) {
-        return uri == null ? null : tx.db.select(SCRIPT.ID).from(SCRIPT).where(SCRIPT.URI.eq(uri)).fetchOne(SCRIPT.ID);
+        if (uri == null) {
+            return null;
+        }
+        Long known = tx.scriptIds.get(uri);
+        if (known != null) {
+            return known;
+        }
+        Long id = tx.db.select(SCRIPT.ID).from(SCRIPT).where(SCRIPT.URI.eq(uri)).fetchOne(SCRIPT.ID);
+        if (id != null) {
+            tx.scriptIds.put(uri, id);
+        }
+        return id;
     }
 }

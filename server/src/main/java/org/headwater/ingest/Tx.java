@@ -4,7 +4,9 @@ import static org.headwater.store.schema.Tables.CHANGE_LOG;
 
 import java.time.OffsetDateTime;
 import java.util.ArrayList;
+import java.util.HashMap;
 import java.util.List;
+import java.util.Map;
 import org.jooq.DSLContext;
 import org.jooq.Record1;
 
@@ -20,6 +22,12 @@ final class Tx {
     private final List<Change> changes = new ArrayList<>();
     /** What the current run of dataset and partition observations has read and will write. */
     final BatchRows rows;
+    /**
+     * Dataset and script ids found by URI in this transaction. An id, once given, never changes and its row
+     * is never deleted, so the lineage and reference observations of a whole analysis look each URI up once.
+     */
+    final Map<String, Long> datasetIds = new HashMap<>();
+    final Map<String, Long> scriptIds = new HashMap<>();
 
     private record Pending(String entity, long entityId, String operation, String summary) {
     }

@@ -19,9 +19,18 @@ public final class WorkspaceAnalysis {
     private final ScriptAnalyzer analyzer = new ScriptAnalyzer();
     private final ShellDriverAnalyzer drivers = new ShellDriverAnalyzer();
 
+    /** Analyses every script found under the root. */
     public List<ScriptAnalysis> analyze(Path workspaceRoot, AnalysisContext ctx) throws IOException {
         Path root = workspaceRoot.toAbsolutePath().normalize();
-        List<Path> scripts = scripts(root);
+        return analyze(root, scripts(root), ctx);
+    }
+
+    /**
+     * Analyses the given scripts, paths relative to the root in name order: a harvest passes the scripts its
+     * own listing found, so the tree is not walked a second time.
+     */
+    public List<ScriptAnalysis> analyze(Path workspaceRoot, List<Path> scripts, AnalysisContext ctx) {
+        Path root = workspaceRoot.toAbsolutePath().normalize();
         List<ScriptInvocation> invocations = new ArrayList<>(ctx.invocations());
         for (Path s : scripts) {
             if (Language.ofFileName(s.getFileName().toString()).orElse(null) == Language.SHELL) {
@@ -49,6 +58,11 @@ public final class WorkspaceAnalysis {
         LOG.warn("Script {} not analysed: {}", script, e.getMessage());
     }
 
+    /** Whether a workspace file is one {@link #analyze} analyses: a script of any language but SQL. */
+    public static boolean analysed(String fileName) {
+        return Language.ofFileName(fileName).filter(l -> l != Language.SQL).isPresent();
+    }
+
     private static List<Path> scripts(Path root) throws IOException {
         try (Stream<Path> files = Files.walk(root)) {
             return files.filter(Files::isRegularFile)
@@ -61,7 +75,7 @@ public final class WorkspaceAnalysis {
                         }
                         return true;
                     })
-                    .filter(p -> Language.ofFileName(p.getFileName().toString()).filter(l -> l != Language.SQL).isPresent())
+                    .filter(p -> analysed(p.getFileName().toString()))
                     .sorted(Comparator.comparing(Path::toString))
                     .toList();
         }

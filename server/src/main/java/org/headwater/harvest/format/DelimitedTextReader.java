@@ -30,15 +30,21 @@ public final class DelimitedTextReader implements FormatReader {
 
     private final CsvSniffer sniffer = new CsvSniffer();
     private final ShapeMemory memory;
+    private final boolean values;
 
     /** A reader that sniffs every file in full. */
     public DelimitedTextReader() {
-        this(ShapeMemory.NONE);
+        this(ShapeMemory.NONE, true);
     }
 
-    /** A reader that reuses the shapes of earlier files of {@code memory} where they fit. */
-    public DelimitedTextReader(ShapeMemory memory) {
+    /**
+     * A reader that reuses the shapes of earlier files of {@code memory} where they fit; without
+     * {@code values} it leaves out each column's minimum and maximum (cell values) instead of working them
+     * out for the harvest to strip.
+     */
+    public DelimitedTextReader(ShapeMemory memory, boolean values) {
         this.memory = memory;
+        this.values = values;
     }
 
     @Override
@@ -78,7 +84,7 @@ public final class DelimitedTextReader implements FormatReader {
     public Reading read(Sample sample) throws UnreadableFileException {
         CsvSniff sniff;
         try {
-            sniff = sniffer.sniff(sample.head(), sample.complete(), sample.size(), memory);
+            sniff = sniffer.sniff(sample.head(), sample.complete(), sample.size(), memory, values);
         } catch (NotDelimitedTextException e) {
             throw new UnreadableFileException(kind(e), e.getMessage());
         }
@@ -94,7 +100,7 @@ public final class DelimitedTextReader implements FormatReader {
                 stat.put("date_pattern", c.datePattern());
             }
             // Value sampling is off by default: the extremes of a text column are cell values (often names).
-            if (SAFE_EXTREMES.contains(c.type())) {
+            if (values && SAFE_EXTREMES.contains(c.type())) {
                 stat.put("min", c.min());
                 stat.put("max", c.max());
             }

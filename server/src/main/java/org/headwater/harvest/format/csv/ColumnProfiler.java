@@ -27,6 +27,17 @@ final class ColumnProfiler {
    */
   static List<ColumnProfile> profile(List<String> names, List<CsvRecord> rows,
       NumberConvention convention, List<String> warnings) {
+    return profile(names, rows, convention, warnings, true);
+  }
+
+  /**
+   * As above; without {@code extremes} every minimum and maximum is null. That spares reading each
+   * number, date and truth value a second time when the harvest keeps no cell values (sampling off):
+   * a number is then parsed only when it does not start with a digit, since only those can be
+   * negative or a sentinel.
+   */
+  static List<ColumnProfile> profile(List<String> names, List<CsvRecord> rows,
+      NumberConvention convention, List<String> warnings, boolean extremes) {
     List<ColumnProfile> profiles = new ArrayList<>(names.size());
     for (int column = 0; column < names.size(); column++) {
       ColumnTypeInference inference = new ColumnTypeInference(convention);
@@ -35,21 +46,23 @@ final class ColumnProfiler {
           inference.add(row.cells().get(column));
         }
       }
-      profiles.add(statistics(names.get(column), column, inference, rows, convention, warnings));
+      profiles.add(statistics(names.get(column), column, inference, rows, convention, warnings,
+          extremes));
     }
     return profiles;
   }
 
   private static ColumnProfile statistics(String name, int column, ColumnTypeInference inference,
-      List<CsvRecord> rows, NumberConvention convention, List<String> warnings) {
+      List<CsvRecord> rows, NumberConvention convention, List<String> warnings, boolean extremes) {
     LogicalType type = inference.type();
     TemporalPattern temporal = inference.temporal();
     boolean numeric = type == LogicalType.INTEGER || type == LogicalType.DECIMAL;
     HllSketch distinct = new HllSketch(LG_K);
-    Extremes extremes = new Extremes();
+    Extremes seen = new Extremes();
     Extremes sentinelExtremes = new Extremes();
     long nulls = 0;
     long sentinels = 0;
+    long kept = 0;
     boolean negatives = false;
     List<String> sentinelSpellings = new ArrayList<>(2);
     for (CsvRecord row : rows) {
@@ -62,31 +75,37 @@ final class ColumnProfiler {
         nulls++;
         continue;
       }
-      Comparable<?> key = key(type, value, convention, temporal);
-      if (numeric) {
-        BigDecimal number = (BigDecimal) key;
+      if (numeric && (extremes || !NumberScanner.isDigit(value.charAt(0)))) {
+        BigDecimal number = number(value, convention);
         if (MissingValues.isSentinel(number)) {
           sentinels++;
           if (!sentinelSpellings.contains(value)) {
             sentinelSpellings.add(value);
           }
-          sentinelExtremes.offer(key, value);
+          if (extremes) {
+            sentinelExtremes.offer(number, value);
+          }
           continue;
         }
         negatives |= number.signum() < 0;
+        if (extremes) {
+          seen.offer(number, value);
+        }
+      } else if (extremes) {
+        seen.offer(key(type, value, convention, temporal), value);
       }
+      kept++;
       distinct.update(value);
-      extremes.offer(key, value);
     }
     if (sentinels > 0) {
-      if (!negatives && extremes.min != null) {
+      if (!negatives && kept > 0) {
         nulls += sentinels;
         warnings.add("column " + name + ": " + sentinels + " cell(s) " + sentinelSpellings
             + " counted as missing: a sentinel in a column never otherwise below zero");
       } else {
         sentinelSpellings.forEach(distinct::update);
-        extremes.offer(sentinelExtremes.minKey, sentinelExtremes.min);
-        extremes.offer(sentinelExtremes.maxKey, sentinelExtremes.max);
+        seen.offer(sentinelExtremes.minKey, sentinelExtremes.min);
+        seen.offer(sentinelExtremes.maxKey, sentinelExtremes.max);
       }
     }
     boolean temporalType = type == LogicalType.DATE || type == LogicalType.TIMESTAMP;
@@ -96,7 +115,7 @@ final class ColumnProfiler {
     }
     long distinctEstimate = distinct.isEmpty() ? 0 : Math.round(distinct.getEstimate());
     return new ColumnProfile(name, type, temporalType ? temporal.pattern() : null, nulls,
-        extremes.min, extremes.max, distinctEstimate, nulls > 0);
+        seen.min, seen.max, distinctEstimate, nulls > 0);
   }
 
   /**

@@ -130,6 +130,8 @@ public final class CsvParser {
     private final boolean backslash = dialect.escape() == Escape.BACKSLASH;
     private final boolean doubled = dialect.escape() == Escape.DOUBLE;
     private final StringBuilder cell = new StringBuilder();
+    /** The cells of the record being read; each complete record takes an exact copy. */
+    private final List<String> gathered = new ArrayList<>();
     private int pos;
     /** Fields of the record read last. */
     private int fields;
@@ -173,7 +175,10 @@ public final class CsvParser {
       countsAtRecordStart[1] = quotedFields;
       countsAtRecordStart[2] = escapes;
       countsAtRecordStart[3] = specialEscapes;
-      List<String> cells = build ? new ArrayList<>() : null;
+      List<String> cells = build ? gathered : null;
+      if (build) {
+        gathered.clear();
+      }
       fields = 0;
       while (true) {
         boolean complete = field();
@@ -186,7 +191,7 @@ public final class CsvParser {
         }
         if (pos >= end) {
           // A record reaching the end of a cut sample may go on in the unread bytes.
-          return endOfFile ? nonNull(cells) : abandon(restart);
+          return endOfFile ? finished(cells) : abandon(restart);
         }
         char c = text.charAt(pos);
         if (c == delimiter) {
@@ -198,17 +203,17 @@ public final class CsvParser {
             }
           }
           if (pos >= end) {
-            return endOfFile ? nonNull(cells) : abandon(restart);
+            return endOfFile ? finished(cells) : abandon(restart);
           }
           continue;
         }
         consumeTerminator();
-        return nonNull(cells);
+        return finished(cells);
       }
     }
 
-    private List<String> nonNull(List<String> cells) {
-      return cells == null ? List.of() : cells;
+    private List<String> finished(List<String> cells) {
+      return cells == null ? List.of() : CellArray.of(cells);
     }
 
     /** Forgets a record cut by the end of a sample, and what was counted in it. */

@@ -12,7 +12,7 @@ import java.util.List;
 public record CsvRecord(List<String> cells, int start, int end) {
 
   public CsvRecord {
-    cells = List.copyOf(cells);
+    cells = cells instanceof CellArray ? cells : List.copyOf(cells);
   }
 
   public int width() {

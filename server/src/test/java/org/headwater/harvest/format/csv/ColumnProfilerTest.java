@@ -3,6 +3,11 @@ package org.headwater.harvest.format.csv;
 import static org.assertj.core.api.Assertions.assertThat;
 
 import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.List;
+import java.util.Random;
+import java.util.stream.Stream;
 import org.junit.jupiter.api.Test;
 
 class ColumnProfilerTest {
@@ -78,5 +83,56 @@ class ColumnProfilerTest {
     CsvSniff s = sniff("a,b,c\n1,2,3\n4,5\n6,7,8\n9,10,11\n");
     assertThat(s.columns().get(2).nullCount()).isEqualTo(1);
     assertThat(s.warnings()).contains("1 data row(s) do not have 3 cells");
+  }
+
+  @Test
+  void leavingOutExtremesChangesNothingButMinimumAndMaximum() throws Exception {
+    // The sampling-off harvest skips reading numbers and dates a second time; everything else it
+    // reports (types, nulls, sentinels, distinct counts, warnings) must equal the full profile.
+    CsvSniffer sniffer = new CsvSniffer();
+    List<byte[]> files = new java.util.ArrayList<>();
+    try (Stream<Path> walk = Files.list(Fixtures.csvDir())) {
+      for (Path file : walk.filter(Files::isRegularFile).sorted().toList()) {
+        files.add(Files.readAllBytes(file));
+      }
+    }
+    // Generated columns where only cells that do not start with a digit decide: sentinels in a
+    // column never otherwise negative, sentinels beside real negatives, signs, leading dots,
+    // decimal commas (invented data).
+    Random random = new Random(20261202L);
+    for (int f = 0; f < 60; f++) {
+      boolean comma = f % 3 == 0;
+      StringBuilder b = new StringBuilder(comma ? "depth;reading;level;on\n" : "depth,reading,level,on\n");
+      for (int r = 0; r < 30 + random.nextInt(60); r++) {
+        String depth = switch (random.nextInt(6)) {
+          case 0 -> "-999";
+          case 1 -> f % 2 == 0 ? "-9999" : "+" + random.nextInt(50);
+          case 2 -> f % 4 == 1 ? "-" + random.nextInt(50) : "" + random.nextInt(50);
+          default -> "" + random.nextInt(500);
+        };
+        String reading = (random.nextBoolean() ? "." : "0" + (comma ? "," : ".")) + random.nextInt(99);
+        String level = random.nextInt(10) == 0 ? "NA" : "" + (random.nextInt(2000) - (f % 5 == 0 ? 1000 : 0));
+        String on = "2026-0" + (1 + random.nextInt(9)) + "-1" + random.nextInt(10);
+        b.append(String.join(comma ? ";" : ",", depth, reading, level, on)).append('\n');
+      }
+      files.add(b.toString().getBytes(StandardCharsets.UTF_8));
+    }
+    for (byte[] bytes : files) {
+      CsvSniff full;
+      try {
+        full = sniffer.sniff(bytes, true, bytes.length, ShapeMemory.NONE, true);
+      } catch (NotDelimitedTextException e) {
+        continue;
+      }
+      CsvSniff lean = sniffer.sniff(bytes, true, bytes.length, ShapeMemory.NONE, false);
+      List<ColumnProfile> withoutExtremes = full.columns().stream()
+          .map(c -> new ColumnProfile(c.name(), c.type(), c.datePattern(), c.nullCount(), null, null,
+              c.distinctEstimate(), c.nullable()))
+          .toList();
+      assertThat(lean.columns()).isEqualTo(withoutExtremes);
+      assertThat(lean.warnings()).isEqualTo(full.warnings());
+      assertThat(lean.rowCount()).isEqualTo(full.rowCount());
+    }
+    assertThat(files).hasSizeGreaterThan(70);
   }
 }

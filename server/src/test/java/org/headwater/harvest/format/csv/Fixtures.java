@@ -22,6 +22,15 @@ final class Fixtures {
     }
   }
 
+  /** The folder of the fixtures, as a path (the test classes are on the file system). */
+  static java.nio.file.Path csvDir() {
+    try {
+      return java.nio.file.Path.of(Fixtures.class.getResource("/csv").toURI());
+    } catch (java.net.URISyntaxException e) {
+      throw new IllegalStateException(e);
+    }
+  }
+
   static String text(String name) {
     return new String(bytes(name), StandardCharsets.UTF_8);
   }
