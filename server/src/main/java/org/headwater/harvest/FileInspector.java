@@ -8,6 +8,7 @@ import java.util.Optional;
 import java.security.NoSuchAlgorithmException;
 import java.util.Arrays;
 import java.util.HexFormat;
+import org.headwater.harvest.format.FormatReader;
 import org.headwater.harvest.format.FormatRegistry;
 import org.headwater.harvest.format.Reading;
 import org.headwater.harvest.format.Sample;
@@ -46,7 +47,11 @@ final class FileInspector {
             Reading reading, String fallbackFormat, String errorKind, String errorMessage) {
     }
 
-    Facts inspect(StorageBackend backend, StoredObject object) {
+    /**
+     * @param detail how much of the reading the harvest keeps: a partition of a set keeps only its schema
+     *     and row count, so its readers may leave out column statistics
+     */
+    Facts inspect(StorageBackend backend, StoredObject object, FormatReader.Detail detail) {
         long size = object.size();
         Instant modified = object.modified();
         String fileName = object.fileName();
@@ -66,7 +71,7 @@ final class FileInspector {
         Sample sample = new Sample(fileName, head.bytes(), head.bytes().length >= size, size, backend.tailOf(object));
         String fallback = sample.extension().isEmpty() ? "unknown" : sample.extension();
         try {
-            return new Facts(object, size, modified, head.sha256(), language, formats.read(sample), fallback, null, null);
+            return new Facts(object, size, modified, head.sha256(), language, formats.read(sample, detail), fallback, null, null);
         } catch (UnreadableFileException e) {
             return new Facts(object, size, modified, head.sha256(), language, null, fallback, e.kind(), e.getMessage());
         } catch (RuntimeException e) {

@@ -24,6 +24,7 @@ import java.util.concurrent.Executors;
 import java.util.concurrent.Future;
 import org.headwater.harvest.FileInspector.Facts;
 import org.headwater.harvest.PartitionPatterns.Placement;
+import org.headwater.harvest.format.FormatReader;
 import org.headwater.harvest.format.FormatRegistry;
 import org.headwater.analysis.ScriptLineage;
 import org.headwater.analysis.script.ScriptAnalysis;
@@ -380,7 +381,9 @@ public final class FolderHarvester {
                     continue;
                 }
                 toRead.add(f);
-                reading.add(pool.submit(() -> inspector.inspect(backend, f)));
+                // A partition keeps only its columns and row count; the set's own facts are summed from them.
+                FormatReader.Detail detail = role == FileRole.PARTITION ? FormatReader.Detail.SCHEMA : FormatReader.Detail.FULL;
+                reading.add(pool.submit(() -> inspector.inspect(backend, f, detail)));
             }
             return new Chunk(toRead, reading, end, filesSeen);
         }

@@ -7,6 +7,7 @@ import java.util.Locale;
 import java.util.Map;
 import java.util.Set;
 import org.headwater.harvest.format.csv.ColumnProfile;
+import org.headwater.harvest.format.csv.ColumnStats;
 import org.headwater.harvest.format.csv.CsvSniff;
 import org.headwater.harvest.format.csv.CsvSniffer;
 import org.headwater.harvest.format.csv.LogicalType;
@@ -82,9 +83,16 @@ public final class DelimitedTextReader implements FormatReader {
 
     @Override
     public Reading read(Sample sample) throws UnreadableFileException {
+        return read(sample, Detail.FULL);
+    }
+
+    @Override
+    public Reading read(Sample sample, Detail detail) throws UnreadableFileException {
+        ColumnStats wanted = detail == Detail.SCHEMA ? ColumnStats.TYPES_AND_NULLS
+                : values ? ColumnStats.ALL : ColumnStats.NO_VALUES;
         CsvSniff sniff;
         try {
-            sniff = sniffer.sniff(sample.head(), sample.complete(), sample.size(), memory, values);
+            sniff = sniffer.sniff(sample.head(), sample.complete(), sample.size(), memory, wanted);
         } catch (NotDelimitedTextException e) {
             throw new UnreadableFileException(kind(e), e.getMessage());
         }
@@ -95,7 +103,9 @@ public final class DelimitedTextReader implements FormatReader {
             Map<String, Object> stat = new LinkedHashMap<>();
             stat.put("name", c.name());
             stat.put("null_count", c.nullCount());
-            stat.put("distinct_estimate", c.distinctEstimate());
+            if (c.distinctEstimate() >= 0) {
+                stat.put("distinct_estimate", c.distinctEstimate());
+            }
             if (c.datePattern() != null) {
                 stat.put("date_pattern", c.datePattern());
             }

@@ -37,9 +37,14 @@ public final class FormatRegistry {
 
     /** Reads the sample with the first reader that accepts it. */
     public Reading read(Sample sample) throws UnreadableFileException {
+        return read(sample, FormatReader.Detail.FULL);
+    }
+
+    /** Reads the sample with the first reader that accepts it, to the given detail. */
+    public Reading read(Sample sample, FormatReader.Detail detail) throws UnreadableFileException {
         for (FormatReader reader : readers) {
             if (reader.accepts(sample)) {
-                return reader.read(sample);
+                return reader.read(sample, detail);
             }
         }
         String format = sample.extension().isEmpty() ? "unknown" : sample.extension();

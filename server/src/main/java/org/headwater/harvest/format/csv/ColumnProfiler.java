@@ -27,17 +27,17 @@ final class ColumnProfiler {
    */
   static List<ColumnProfile> profile(List<String> names, List<CsvRecord> rows,
       NumberConvention convention, List<String> warnings) {
-    return profile(names, rows, convention, warnings, true);
+    return profile(names, rows, convention, warnings, ColumnStats.ALL);
   }
 
   /**
-   * As above; without {@code extremes} every minimum and maximum is null. That spares reading each
-   * number, date and truth value a second time when the harvest keeps no cell values (sampling off):
-   * a number is then parsed only when it does not start with a digit, since only those can be
-   * negative or a sentinel.
+   * As above, working out only what {@code stats} asks for. Without extremes every minimum and
+   * maximum is null, which spares reading each number, date and truth value a second time: a number
+   * is then parsed only when it does not start with a digit, since only those can be negative or a
+   * sentinel. Without distinct counts no sketch is kept and the estimate is -1.
    */
   static List<ColumnProfile> profile(List<String> names, List<CsvRecord> rows,
-      NumberConvention convention, List<String> warnings, boolean extremes) {
+      NumberConvention convention, List<String> warnings, ColumnStats stats) {
     List<ColumnProfile> profiles = new ArrayList<>(names.size());
     for (int column = 0; column < names.size(); column++) {
       ColumnTypeInference inference = new ColumnTypeInference(convention);
@@ -47,17 +47,18 @@ final class ColumnProfiler {
         }
       }
       profiles.add(statistics(names.get(column), column, inference, rows, convention, warnings,
-          extremes));
+          stats));
     }
     return profiles;
   }
 
   private static ColumnProfile statistics(String name, int column, ColumnTypeInference inference,
-      List<CsvRecord> rows, NumberConvention convention, List<String> warnings, boolean extremes) {
+      List<CsvRecord> rows, NumberConvention convention, List<String> warnings, ColumnStats stats) {
+    boolean extremes = stats == ColumnStats.ALL;
     LogicalType type = inference.type();
     TemporalPattern temporal = inference.temporal();
     boolean numeric = type == LogicalType.INTEGER || type == LogicalType.DECIMAL;
-    HllSketch distinct = new HllSketch(LG_K);
+    HllSketch distinct = stats == ColumnStats.TYPES_AND_NULLS ? null : new HllSketch(LG_K);
     Extremes seen = new Extremes();
     Extremes sentinelExtremes = new Extremes();
     long nulls = 0;
@@ -95,7 +96,9 @@ final class ColumnProfiler {
         seen.offer(key(type, value, convention, temporal), value);
       }
       kept++;
-      distinct.update(value);
+      if (distinct != null) {
+        distinct.update(value);
+      }
     }
     if (sentinels > 0) {
       if (!negatives && kept > 0) {
@@ -103,7 +106,9 @@ final class ColumnProfiler {
         warnings.add("column " + name + ": " + sentinels + " cell(s) " + sentinelSpellings
             + " counted as missing: a sentinel in a column never otherwise below zero");
       } else {
-        sentinelSpellings.forEach(distinct::update);
+        if (distinct != null) {
+          sentinelSpellings.forEach(distinct::update);
+        }
         seen.offer(sentinelExtremes.minKey, sentinelExtremes.min);
         seen.offer(sentinelExtremes.maxKey, sentinelExtremes.max);
       }
@@ -113,7 +118,8 @@ final class ColumnProfiler {
       warnings.add("column " + name + ": day and month order is ambiguous (no day above 12); "
           + "assumed " + temporal.pattern());
     }
-    long distinctEstimate = distinct.isEmpty() ? 0 : Math.round(distinct.getEstimate());
+    long distinctEstimate = distinct == null ? -1
+        : distinct.isEmpty() ? 0 : Math.round(distinct.getEstimate());
     return new ColumnProfile(name, type, temporalType ? temporal.pattern() : null, nulls,
         seen.min, seen.max, distinctEstimate, nulls > 0);
   }

@@ -42,21 +42,21 @@ public final class CsvSniffer {
    */
   public CsvSniff sniff(byte[] head, boolean wholeFile, long fileSize, ShapeMemory memory)
       throws NotDelimitedTextException {
-    return sniff(head, wholeFile, fileSize, memory, true);
+    return sniff(head, wholeFile, fileSize, memory, ColumnStats.ALL);
   }
 
   /**
-   * As above; without {@code extremes} the columns' minimum and maximum are left null, for a
-   * harvest that keeps no cell values (sampling off), which then need not be worked out.
+   * As above, working out only the column statistics {@code stats} names: a harvest that keeps no
+   * cell values, or only a partition's columns, need not compute the rest.
    */
   public CsvSniff sniff(byte[] head, boolean wholeFile, long fileSize, ShapeMemory memory,
-      boolean extremes) throws NotDelimitedTextException {
+      ColumnStats stats) throws NotDelimitedTextException {
     if (head == null) {
       throw new NotDelimitedTextException(NotDelimitedTextException.Reason.EMPTY, "no bytes");
     }
     try {
       return new Run(head, wholeFile || fileSize >= 0 && fileSize == head.length, fileSize, memory,
-          extremes).sniff();
+          stats).sniff();
     } catch (RuntimeException | StackOverflowError e) {
       throw new NotDelimitedTextException(NotDelimitedTextException.Reason.UNEXPECTED,
           "detector failure: " + e, e);
@@ -69,15 +69,15 @@ public final class CsvSniffer {
     private final boolean complete;
     private final long fileSize;
     private final ShapeMemory memory;
-    private final boolean extremes;
+    private final ColumnStats stats;
     private final List<String> warnings = new ArrayList<>();
 
-    Run(byte[] head, boolean complete, long fileSize, ShapeMemory memory, boolean extremes) {
+    Run(byte[] head, boolean complete, long fileSize, ShapeMemory memory, ColumnStats stats) {
       this.head = head;
       this.complete = complete;
       this.fileSize = fileSize;
       this.memory = memory;
-      this.extremes = extremes;
+      this.stats = stats;
     }
 
     CsvSniff sniff() throws NotDelimitedTextException {
@@ -153,7 +153,7 @@ public final class CsvSniffer {
         names = names.subList(0, width - 1);
       }
       List<ColumnProfile> columns = ColumnProfiler.profile(names, data.profiled(),
-          numbers.convention(), warnings, extremes);
+          numbers.convention(), warnings, stats);
       return new CsvSniff(charset, encoding.bom(), dialect, terminators.dominant(),
           layout.header(), layout.skipLines(), data.footer(), numbers.convention().decimal(),
           numbers.thousandsSeparator(), columns, data.rowCount(), complete,

@@ -86,7 +86,7 @@ class ColumnProfilerTest {
   }
 
   @Test
-  void leavingOutExtremesChangesNothingButMinimumAndMaximum() throws Exception {
+  void leavingOutValuesOrDistinctCountsChangesNothingElse() throws Exception {
     // The sampling-off harvest skips reading numbers and dates a second time; everything else it
     // reports (types, nulls, sentinels, distinct counts, warnings) must equal the full profile.
     CsvSniffer sniffer = new CsvSniffer();
@@ -120,18 +120,25 @@ class ColumnProfilerTest {
     for (byte[] bytes : files) {
       CsvSniff full;
       try {
-        full = sniffer.sniff(bytes, true, bytes.length, ShapeMemory.NONE, true);
+        full = sniffer.sniff(bytes, true, bytes.length, ShapeMemory.NONE, ColumnStats.ALL);
       } catch (NotDelimitedTextException e) {
         continue;
       }
-      CsvSniff lean = sniffer.sniff(bytes, true, bytes.length, ShapeMemory.NONE, false);
-      List<ColumnProfile> withoutExtremes = full.columns().stream()
+      CsvSniff noValues = sniffer.sniff(bytes, true, bytes.length, ShapeMemory.NONE, ColumnStats.NO_VALUES);
+      CsvSniff typesOnly =
+          sniffer.sniff(bytes, true, bytes.length, ShapeMemory.NONE, ColumnStats.TYPES_AND_NULLS);
+      assertThat(noValues.columns()).isEqualTo(full.columns().stream()
           .map(c -> new ColumnProfile(c.name(), c.type(), c.datePattern(), c.nullCount(), null, null,
               c.distinctEstimate(), c.nullable()))
-          .toList();
-      assertThat(lean.columns()).isEqualTo(withoutExtremes);
-      assertThat(lean.warnings()).isEqualTo(full.warnings());
-      assertThat(lean.rowCount()).isEqualTo(full.rowCount());
+          .toList());
+      assertThat(typesOnly.columns()).isEqualTo(full.columns().stream()
+          .map(c -> new ColumnProfile(c.name(), c.type(), c.datePattern(), c.nullCount(), null, null,
+              -1, c.nullable()))
+          .toList());
+      for (CsvSniff lean : List.of(noValues, typesOnly)) {
+        assertThat(lean.warnings()).isEqualTo(full.warnings());
+        assertThat(lean.rowCount()).isEqualTo(full.rowCount());
+      }
     }
     assertThat(files).hasSizeGreaterThan(70);
   }
