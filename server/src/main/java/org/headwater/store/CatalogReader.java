@@ -171,13 +171,17 @@ public final class CatalogReader {
 
     /** The member files of a partitioned set, by name. */
     public List<PartitionView> partitions(long datasetId, Instant asOf) {
+        // The members of a set mostly share one column list: each distinct text is parsed once.
+        Map<String, List<ColumnView>> parsed = new HashMap<>();
         return db.selectFrom(DATASET_PARTITION)
                 .where(DATASET_PARTITION.DATASET_ID.eq(datasetId),
                         Validity.at(DATASET_PARTITION.VALID_FROM, DATASET_PARTITION.VALID_TO, asOf))
                 .orderBy(DATASET_PARTITION.NAME)
                 .fetch(p -> new PartitionView(p.getName(), p.getUri(), p.getPartitionKeys(), p.getSizeBytes(),
                         instant(p.getModifiedAt()), p.getContentHash(), p.getRowCount(), p.getRowCountExact(),
-                        parseColumns(p.getColumnsJson()), p.getError()));
+                        p.getColumnsJson() == null ? List.of()
+                                : parsed.computeIfAbsent(p.getColumnsJson(), CatalogReader::parseColumns),
+                        p.getError()));
     }
 
     private static List<ColumnView> parseColumns(String json) {
@@ -191,7 +195,7 @@ public final class CatalogReader {
                 columns.add(new ColumnView(ordinal++, c.get("name").asText(), c.get("dataType").asText(),
                         c.get("nullable").asBoolean()));
             }
-            return columns;
+            return List.copyOf(columns);
         } catch (IOException e) {
             throw new StoreException("A stored partition column list is not valid JSON", e);
         }
