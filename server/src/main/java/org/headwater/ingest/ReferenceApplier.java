@@ -3,6 +3,7 @@ package org.headwater.ingest;
 import static org.headwater.store.schema.Tables.SCRIPT_ANALYSIS;
 import static org.headwater.store.schema.Tables.SCRIPT_REFERENCE;
 
+import java.util.List;
 import org.headwater.ingest.Observation.Reference;
 import org.headwater.ingest.Observation.ScriptReferencesSeen;
 import org.headwater.model.DatasetKind;
@@ -10,6 +11,8 @@ import org.headwater.store.schema.tables.records.ScriptAnalysisRecord;
 
 /** Applies the references static analysis found in scripts, one analysis version at a time. */
 final class ReferenceApplier {
+    /** References per insert statement (11 bind values each). */
+    private static final int CHUNK = 500;
 
     void apply(Tx tx, ScriptReferencesSeen seen) {
         Long script = ScriptApplier.find(tx, seen.scriptUri());
@@ -33,17 +36,19 @@ final class ReferenceApplier {
                 .set(SCRIPT_ANALYSIS.WARNINGS, seen.warnings().isEmpty() ? null : Tx.truncate(Json.stringArray(seen.warnings()), 100000))
                 .set(SCRIPT_ANALYSIS.VALID_FROM, tx.now)
                 .returningResult(SCRIPT_ANALYSIS.ID).fetchOne(SCRIPT_ANALYSIS.ID);
-        if (!seen.references().isEmpty()) {
+        // A multi-row insert per chunk of references, where each was a statement; chunks keep the bind values
+        // of one statement well under PostgreSQL's limit of 65,535.
+        List<Reference> references = seen.references();
+        for (int from = 0; from < references.size(); from += CHUNK) {
             var insert = tx.db.insertInto(SCRIPT_REFERENCE, SCRIPT_REFERENCE.ANALYSIS_ID, SCRIPT_REFERENCE.DIRECTION,
                     SCRIPT_REFERENCE.PATTERN, SCRIPT_REFERENCE.RESOLVED, SCRIPT_REFERENCE.DATASET_ID,
                     SCRIPT_REFERENCE.FUNCTION_NAME, SCRIPT_REFERENCE.EXPRESSION, SCRIPT_REFERENCE.LINE_NO,
                     SCRIPT_REFERENCE.COLUMN_NO, SCRIPT_REFERENCE.CELL, SCRIPT_REFERENCE.CONFIDENCE);
-            for (Reference r : seen.references()) {
+            for (Reference r : references.subList(from, Math.min(references.size(), from + CHUNK))) {
                 insert = insert.values(analysis, r.direction(), r.pattern() == null ? null : Tx.truncate(r.pattern(), 2000),
                         r.resolved(), datasetOf(tx, r), Tx.truncate(r.function(), 200), Tx.truncate(r.expression(), 4000),
                         r.line(), r.column(), r.cell(), r.confidence());
             }
-            // One statement for all of a script's references: they were a statement each.
             insert.execute();
         }
         tx.changed(Change.SCRIPT, script, "analysis", seen.references().size() + " references");

@@ -174,4 +174,35 @@ class IngestorTest {
         assertThat(catalog.reader().findDatasets(RAW)).isEmpty();
         assertThat(catalog.reader().changeLogSize()).isZero();
     }
+
+    @Test
+    void aScriptWithMoreReferencesThanOneInsertHoldsEachInCodeOrderAndReadsNoDatasetTwice() {
+        // 1,203 references (more than two statements' worth) to 7 datasets, 3 of which no harvest has seen.
+        catalog.ingestor().apply("test", List.of(gauges(RAW, V1, 120)));
+        String script = "file:///lake/scripts/many_reads.py";
+        catalog.ingestor().apply("test", List.of(new Observation.ScriptSeen(script, "scripts/many_reads.py",
+                org.headwater.model.Language.PYTHON, null, 10L, MODIFIED, "cd".repeat(32), null, null, null, List.of())));
+        List<Observation.Reference> references = new java.util.ArrayList<>();
+        for (int i = 0; i < 1203; i++) {
+            String uri = i % 7 == 0 ? RAW : "file:///lake/derived/part_" + (i % 4) + ".csv";
+            references.add(new Observation.Reference(i % 2 == 0 ? "read" : "write", "pattern_" + i, true, uri,
+                    "pandas.read_csv", "pd.read_csv(p)", i + 1, 4, null, 0.9));
+        }
+        catalog.ingestor().apply("test", List.of(new Observation.ScriptReferencesSeen(script, "cd".repeat(32),
+                references, List.of())));
+
+        long scriptId = catalog.reader().findScripts(script).get(0).id();
+        List<org.headwater.store.Views.ReferenceView> stored = catalog.reader().references(scriptId);
+        assertThat(stored).hasSize(1203);
+        for (int i = 0; i < 1203; i++) {
+            assertThat(stored.get(i).pattern()).isEqualTo("pattern_" + i);
+            assertThat(stored.get(i).line()).isEqualTo(i + 1);
+            assertThat(stored.get(i).dataset()).isEqualTo(i % 7 == 0 ? "raw/gauges.csv" : "derived/part_" + (i % 4) + ".csv");
+        }
+        // Each unseen dataset got one identity (named by DatasetNames.fallbackName, its last two path parts), however
+        // many references name it.
+        for (int k = 0; k < 4; k++) {
+            assertThat(catalog.reader().findDatasets("file:///lake/derived/part_" + k + ".csv")).hasSize(1);
+        }
+    }
 }
