@@ -55,15 +55,8 @@ final class DatasetApplier {
             DatasetRecord d = tx.rows.dataset(uri);
             return d == null ? null : d.getId();
         }
-        Long known = tx.datasetIds.get(uri);
-        if (known != null) {
-            return known;
-        }
-        Long id = tx.db.select(DATASET.ID).from(DATASET).where(DATASET.URI.eq(uri)).fetchOne(DATASET.ID);
-        if (id != null) {
-            tx.datasetIds.put(uri, id);
-        }
-        return id;
+        return Tx.remembered(tx.datasetIds, uri,
+                u -> tx.db.select(DATASET.ID).from(DATASET).where(DATASET.URI.eq(u)).fetchOne(DATASET.ID));
     }
 
     /** Finds or creates the dataset's identity row; only the name and kind may be corrected later. */

@@ -89,14 +89,7 @@ final class ScriptApplier {
         if (uri == null) {
             return null;
         }
-        Long known = tx.scriptIds.get(uri);
-        if (known != null) {
-            return known;
-        }
-        Long id = tx.db.select(SCRIPT.ID).from(SCRIPT).where(SCRIPT.URI.eq(uri)).fetchOne(SCRIPT.ID);
-        if (id != null) {
-            tx.scriptIds.put(uri, id);
-        }
-        return id;
+        return Tx.remembered(tx.scriptIds, uri,
+                u -> tx.db.select(SCRIPT.ID).from(SCRIPT).where(SCRIPT.URI.eq(u)).fetchOne(SCRIPT.ID));
     }
 }

@@ -29,6 +29,19 @@ final class Tx {
     final Map<String, Long> datasetIds = new HashMap<>();
     final Map<String, Long> scriptIds = new HashMap<>();
 
+    /** The id {@code memo} holds for a URI, else what {@code lookup} finds, remembered when it finds one. */
+    static Long remembered(Map<String, Long> memo, String uri, java.util.function.Function<String, Long> lookup) {
+        Long known = memo.get(uri);
+        if (known != null) {
+            return known;
+        }
+        Long id = lookup.apply(uri);
+        if (id != null) {
+            memo.put(uri, id);
+        }
+        return id;
+    }
+
     private record Pending(String entity, long entityId, String operation, String summary) {
     }
 
