@@ -177,4 +177,40 @@ class FolderHarvesterTest {
                     .containsExactly("gauges/month=01/levels.csv file");
         }
     }
+
+    @Test
+    void cellValuesReachTheStoreOnlyWhenSamplingIsOnAndPartitionsKeepOnlyTheirSchema() throws Exception {
+        // Invented data: one plain file and a two-member partition set with a sentinel and a negative level.
+        Path lake = Files.createDirectories(temp.resolve("lake"));
+        Files.writeString(lake.resolve("gauges.csv"), "gauge,level,read_on\nG1,-3.5,2026-01-04\nG2,12.25,2026-02-11\n");
+        for (String month : List.of("01", "02")) {
+            Path part = Files.createDirectories(lake.resolve("levels/month=" + month));
+            Files.writeString(part.resolve("levels.csv"), "gauge,level\nG1,-999\nG2,4." + month + "\n");
+        }
+        for (boolean sampling : List.of(false, true)) {
+            try (Catalog catalog = TestCatalogs.fresh(temp.resolve("catalog-" + sampling))) {
+                catalog.harvestFolder(lake, false, sampling, HarvestProgress.NONE);
+                String details = details(catalog, lake.resolve("gauges.csv").toUri().toString());
+                if (sampling) {
+                    assertThat(details).contains("\"min\":\"-3.5\"", "\"max\":\"12.25\"",
+                            "\"min\":\"2026-01-04\"", "\"max\":\"2026-02-11\"");
+                } else {
+                    assertThat(details).doesNotContain("\"min\"", "\"max\"", "-3.5", "12.25", "2026-01-04");
+                }
+                assertThat(details).contains("\"distinct_estimate\":2");
+                // -999 in a column that is otherwise never negative is missing (README, the -999 judgment): the
+                // set's level column is nullable whichever statistics its partitions were read with.
+                DatasetView set = catalog.reader().findDatasets(lake.resolve("levels").toUri() + "month=*/levels.csv")
+                        .stream().findFirst().flatMap(d -> catalog.reader().dataset(d.id(), null)).orElseThrow();
+                assertThat(set.columns()).extracting(ColumnView::name, ColumnView::type, ColumnView::nullable)
+                        .containsExactly(org.assertj.core.groups.Tuple.tuple("gauge", "text", false),
+                                org.assertj.core.groups.Tuple.tuple("level", "decimal", true));
+            }
+        }
+    }
+
+    private static String details(Catalog catalog, String uri) {
+        return catalog.reader().findDatasets(uri).stream().findFirst()
+                .flatMap(d -> catalog.reader().dataset(d.id(), null)).orElseThrow().details();
+    }
 }

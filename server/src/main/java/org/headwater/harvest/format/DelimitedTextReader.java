@@ -110,7 +110,7 @@ public final class DelimitedTextReader implements FormatReader {
                 stat.put("date_pattern", c.datePattern());
             }
             // Value sampling is off by default: the extremes of a text column are cell values (often names).
-            if (values && SAFE_EXTREMES.contains(c.type())) {
+            if (wanted == ColumnStats.ALL && SAFE_EXTREMES.contains(c.type())) {
                 stat.put("min", c.min());
                 stat.put("max", c.max());
             }
