@@ -53,11 +53,6 @@ public final class ScriptLineage {
         this.reader = reader;
     }
 
-    /** The observations for one harvested folder. */
-    public List<Observation> observe(Path root, long sourceId, String sourceName) throws IOException {
-        return observe(root, sourceId, sourceName, new WorkspaceAnalysis().analyze(root, AnalysisContext.defaults()));
-    }
-
     /**
      * The analysis of the given workspace scripts (relative paths in name order). It reads no store, so a
      * harvest runs it while the data files are still being read, and hands it to {@link #observe(Path, long,

@@ -179,8 +179,7 @@ public final class CatalogReader {
                 .orderBy(DATASET_PARTITION.NAME)
                 .fetch(p -> new PartitionView(p.getName(), p.getUri(), p.getPartitionKeys(), p.getSizeBytes(),
                         instant(p.getModifiedAt()), p.getContentHash(), p.getRowCount(), p.getRowCountExact(),
-                        p.getColumnsJson() == null ? List.of()
-                                : parsed.computeIfAbsent(p.getColumnsJson(), CatalogReader::parseColumns),
+                        parsed.computeIfAbsent(p.getColumnsJson(), CatalogReader::parseColumns),
                         p.getError()));
     }
 
