@@ -42,6 +42,10 @@ final class TableFolders {
     static Map<String, Format> find(Collection<StoredObject> objects) {
         Map<String, Format> roots = new TreeMap<>();
         for (StoredObject o : objects) {
+            // Most names hold neither folder; the regular expressions, which scan the whole name, are for the few.
+            if (!o.name().endsWith(".json") || !(o.name().contains("_delta_log/") || o.name().contains("metadata/"))) {
+                continue;
+            }
             Matcher delta = DeltaLog.COMMIT_ANYWHERE.matcher(o.name());
             if (delta.matches()) {
                 roots.put(delta.group(1), Format.DELTA);
