@@ -105,9 +105,17 @@ final class MatchCounter {
         int share = Math.max(2, cap / 2 / Math.max(1, count));
         int open = count;
         for (int round = 0; round < ROUNDS && open > 0 && budget > 0; round++) {
-            long used = 0;
+            // Segments are visited at the same time, each by one task: a segment's windows share its scorer.
+            int roundShare = share;
+            List<java.util.concurrent.Callable<Long>> visits = new ArrayList<>();
             for (int i = 0; i < leaves.size(); i++) {
-                used += visit(weight, leaves.get(i), windows.get(i), share);
+                LeafReaderContext leaf = leaves.get(i);
+                List<Window> own = windows.get(i);
+                visits.add(() -> visit(weight, leaf, own, roundShare));
+            }
+            long used = 0;
+            for (long n : searcher.getTaskExecutor().invokeAll(visits)) {
+                used += n;
             }
             budget -= used;
             open = 0;
@@ -118,19 +126,30 @@ final class MatchCounter {
             }
             share = (int) Math.max(1, budget / Math.max(1, open));
         }
+        List<java.util.concurrent.Callable<Segment>> tally = new ArrayList<>();
+        for (int i = 0; i < leaves.size(); i++) {
+            LeafReaderContext leaf = leaves.get(i);
+            List<Window> own = windows.get(i);
+            tally.add(() -> {
+                Segment segment = new Segment(leaf, freshness);
+                for (Window w : own) {
+                    double estimate = w.estimate();
+                    segment.total += estimate;
+                    double weightOfEach = w.seen == 0 ? 0 : estimate / w.seen;
+                    for (int d = 0; d < w.seen; d++) {
+                        segment.add(w.docs[d], weightOfEach);
+                    }
+                }
+                return segment;
+            });
+        }
         double total = 0;
         Map<String, Map<String, Double>> counts = new LinkedHashMap<>();
         Map<String, Double> fresh = new TreeMap<>();
-        for (int i = 0; i < leaves.size(); i++) {
-            Segment segment = new Segment(leaves.get(i), freshness);
-            for (Window w : windows.get(i)) {
-                double estimate = w.estimate();
-                total += estimate;
-                double weightOfEach = w.seen == 0 ? 0 : estimate / w.seen;
-                for (int d = 0; d < w.seen; d++) {
-                    segment.add(w.docs[d], weightOfEach, fresh);
-                }
-            }
+        // Summed in segment order, as when one thread did it all: the same floating-point sums every time.
+        for (Segment segment : searcher.getTaskExecutor().invokeAll(tally)) {
+            total += segment.total;
+            segment.fresh.forEach((state, n) -> fresh.merge(state, n, Double::sum));
             segment.addTo(counts);
         }
         Map<String, Map<String, Integer>> facets = new LinkedHashMap<>();
@@ -228,6 +247,9 @@ final class MatchCounter {
         private final NumericDocValues rankIds;
         private final FreshnessProvider freshness;
         private final double[] byOrd;
+        /** The matches the segment's windows stand for, and its datasets' weights by freshness state. */
+        double total;
+        final Map<String, Double> fresh = new TreeMap<>();
 
         Segment(LeafReaderContext leaf, FreshnessProvider freshness) throws IOException {
             this.values = DocValues.getSortedSet(leaf.reader(), FACET_FIELD);
@@ -237,7 +259,7 @@ final class MatchCounter {
             this.byOrd = new double[(int) Math.min(Integer.MAX_VALUE - 8, values.getValueCount())];
         }
 
-        void add(int doc, double weight, Map<String, Double> fresh) throws IOException {
+        void add(int doc, double weight) throws IOException {
             if (values.advanceExact(doc)) {
                 for (int i = 0; i < values.docValueCount(); i++) {
                     byOrd[(int) values.nextOrd()] += weight;

@@ -46,16 +46,22 @@ public final class HarvestBenchmark {
         double stat = median(() -> statWalk(lake));
         double read = median(() -> readWalk(lake));
         resetPeaks();
+        long cpuStart = processCpuNanos();
+        long jitStart = ManagementFactory.getCompilationMXBean().getTotalCompilationTime();
         long start = System.nanoTime();
         HarvestSummary full;
         HarvestSummary again;
         double fullSeconds;
         double againSeconds;
+        double fullCpu;
+        double fullJit;
         try (Catalog catalog = Catalog.open(catalogDir)) {
             full = catalog.harvestFolder(lake, false, HarvestProgress.NONE);
             // Until the search index holds it too: the index is written on its own thread.
             catalog.index().absorbedSeq();
             fullSeconds = (System.nanoTime() - start) / 1e9;
+            fullCpu = (processCpuNanos() - cpuStart) / 1e9;
+            fullJit = (ManagementFactory.getCompilationMXBean().getTotalCompilationTime() - jitStart) / 1e3;
             long t = System.nanoTime();
             again = catalog.harvestFolder(lake, false, HarvestProgress.NONE);
             catalog.index().absorbedSeq();
@@ -81,11 +87,18 @@ public final class HarvestBenchmark {
         System.out.printf("floor, walk + first 64 KiB       %8.2f s%n", read);
         System.out.printf("full harvest                     %8.2f s   %5.1f x the read floor (target <= 20)%n",
                 fullSeconds, fullSeconds / read);
+        System.out.printf("  CPU of the full harvest          %8.2f s   (%.2f s of it in the JIT compilers; 2 cores)%n",
+                fullCpu, fullJit);
         System.out.printf("full harvest, compiled (2nd)     %8.2f s   %5.1f x the read floor measured again (%.2f s)%n",
                 warmSeconds, warmSeconds / warmRead, warmRead);
         System.out.printf("no-change re-harvest             %8.2f s   %5.1f x the stat floor (target <= 5), %d changes%n",
                 againSeconds, againSeconds / stat, again.changes());
         System.out.printf("peak heap                        %8.0f MiB (target < 1024)%n", peak / 1048576.0);
+    }
+
+    /** CPU time of the whole process, all threads (the JIT compilers' too). */
+    private static long processCpuNanos() {
+        return ((com.sun.management.OperatingSystemMXBean) ManagementFactory.getOperatingSystemMXBean()).getProcessCpuTime();
     }
 
     /** Wall seconds of the middle of three runs. */
