@@ -29,11 +29,11 @@ import org.apache.lucene.util.Bits;
 /**
  * Counts the matches of a query and their facet values, visiting about {@code cap} of them. Each segment is
  * cut into windows of at most {@link #WINDOW} documents (at least 16 per family unless they would fall under
- * 16 documents) that never span two families; the windows of one family in
- * one segment form a stratum. Windows are visited whole, in an order drawn at random once per stratum with a
- * fixed seed: the first round visits a small equal share of every stratum, later rounds a larger one sized
- * by the density seen so far, until the cap is spent. When what is left looks no larger than twice what the
- * cap still allows, every window is visited and every count is exact. Otherwise each stratum's visited matches stand for the whole
+ * 16 documents) that never span two families; the windows of one family in one segment form a stratum.
+ * Windows are visited whole, in an order drawn at random once per stratum with a fixed seed: the first round
+ * visits a small equal share of every stratum, later rounds a larger one sized by the density seen so far,
+ * until the cap is spent. When what is left looks no larger than twice what the cap still allows, every
+ * window is visited and every count is exact. Otherwise each stratum's visited matches stand for the whole
  * stratum in the ratio of its windows to those visited (stratified cluster sampling), and the total and the
  * counts are estimates and say so. Visiting every match of a word found in a tenth of a large catalog is what
  * made broad searches slow, and an "about" count serves the person as well. Whole windows drawn at random
