@@ -108,7 +108,9 @@ final class Ranks {
 
     /**
      * The factors of a segment's documents, and for each block of {@link #BLOCK} documents the largest factor
-     * from that block to the segment's end: the bound on the factor of every document still to come.
+     * from that block to the segment's end: the bound on the factor of every document still to come. Exact, not
+     * an ulp above: {@code RankedQuery} works out the threshold it passes on in the same float arithmetic as the
+     * scores, so a margin here would only keep tied matches from being skipped.
      */
     record SegmentFactors(float[] byDoc, float[] largestFromBlock) {
         float largestFrom(int doc) {
@@ -134,7 +136,7 @@ final class Ranks {
         for (int doc = out.length - 1; doc >= 0; doc--) {
             running = Math.max(running, out[doc]);
             if ((doc & (BLOCK - 1)) == 0) {
-                largest[doc >>> BLOCK_SHIFT] = Math.nextUp(running);
+                largest[doc >>> BLOCK_SHIFT] = running;
             }
         }
         return new SegmentFactors(out, largest);
