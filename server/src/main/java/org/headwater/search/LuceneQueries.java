@@ -241,9 +241,25 @@ final class LuceneQueries {
      * is a beginning that runs across a camelCase boundary inside a joined name.
      */
     static Query beginning(String field, String part) {
-        Automaton a = Operations.concatenate(Automata.makeString(part), Operations.repeat(WORD_CHAR));
-        return new Beginning(new Term(field, part), Operations.determinize(a, Operations.DEFAULT_DETERMINIZE_WORK_LIMIT));
+        Term term = new Term(field, part);
+        // Compiling the automaton cost about a twentieth of a whole search; the query is immutable and shared.
+        Query known = BEGINNINGS.get(term);
+        if (known == null) {
+            Automaton a = Operations.concatenate(Automata.makeString(part), Operations.repeat(WORD_CHAR));
+            known = new Beginning(term, Operations.determinize(a, Operations.DEFAULT_DETERMINIZE_WORK_LIMIT));
+            BEGINNINGS.put(term, known);
+        }
+        return known;
     }
+
+    /** The word-beginning queries built lately, by field and part, the least recently used dropped first. */
+    private static final Map<Term, Query> BEGINNINGS = java.util.Collections.synchronizedMap(
+            new java.util.LinkedHashMap<>(256, 0.75f, true) {
+                @Override
+                protected boolean removeEldestEntry(Map.Entry<Term, Query> eldest) {
+                    return size() > 2_048;
+                }
+            });
 
     /** The words of a field that begin with a part, written {@code field:part*} as a prefix query is. */
     private static final class Beginning extends AutomatonQuery {

@@ -9,6 +9,7 @@ import java.util.Map;
 import java.util.TreeMap;
 import org.apache.lucene.facet.FacetsConfig;
 import org.apache.lucene.index.DocValues;
+import org.apache.lucene.index.IndexReader;
 import org.apache.lucene.index.LeafReaderContext;
 import org.apache.lucene.index.NumericDocValues;
 import org.apache.lucene.index.PostingsEnum;
@@ -58,42 +59,93 @@ final class MatchCounter {
     record Counted(long total, boolean exact, Map<String, Map<String, Integer>> facets) {
     }
 
-    /** A stretch of one segment's documents and, once visited, its matches. */
-    private static final class Window {
-        final int leaf;
-        final int start;
-        final int end;
-        int[] docs = new int[8];
-        int seen;
-
-        Window(int leaf, int start, int end) {
-            this.leaf = leaf;
-            this.start = start;
-            this.end = end;
-        }
-
-        void add(int doc) {
-            if (seen == docs.length) {
-                docs = java.util.Arrays.copyOf(docs, seen * 2);
+    /**
+     * How one segment is cut: its windows in document order ({@code start[w]} to {@code end[w]}) and its strata,
+     * each the ids of one family's windows in their drawn order. It depends on the segment alone, so it is
+     * worked out once per segment and kept until the segment closes: cutting and shuffling the windows again
+     * for every search cost about a twentieth of a broad one.
+     */
+    private record Layout(int[] start, int[] end, int[][] strata) {
+        static Layout of(LeafReaderContext leaf) throws IOException {
+            List<int[]> windows = new ArrayList<>();
+            List<int[]> strata = new ArrayList<>();
+            for (int[] range : familyRanges(leaf)) {
+                // Small families get smaller windows: a stratum of a few windows makes a coarse sample.
+                int size = Math.max(MIN_WINDOW, Math.min(WINDOW, (range[1] - range[0] + WINDOWS_PER_STRATUM - 1) / WINDOWS_PER_STRATUM));
+                List<Integer> own = new ArrayList<>();
+                for (int start = range[0], end; start < range[1]; start = end) {
+                    end = (int) Math.min(range[1], (long) start + size);
+                    own.add(windows.size());
+                    windows.add(new int[] {start, end});
+                }
+                // The same draw for the same segment: a repeated query gives the same estimate.
+                java.util.Collections.shuffle(own, new java.util.Random(SEED + 31L * leaf.reader().maxDoc() + range[0]));
+                strata.add(own.stream().mapToInt(Integer::intValue).toArray());
             }
-            docs[seen++] = doc;
+            int[] start = new int[windows.size()];
+            int[] end = new int[windows.size()];
+            for (int w = 0; w < start.length; w++) {
+                start[w] = windows.get(w)[0];
+                end[w] = windows.get(w)[1];
+            }
+            return new Layout(start, end, strata.toArray(new int[0][]));
         }
     }
 
-    /** One family's windows in one segment, in their drawn order, and how many of them are visited. */
+    private static final Map<Object, Layout> LAYOUTS = new java.util.concurrent.ConcurrentHashMap<>();
+
+    private static Layout layout(LeafReaderContext leaf) throws IOException {
+        IndexReader.CacheHelper helper = leaf.reader().getCoreCacheHelper();
+        if (helper == null) {
+            return Layout.of(leaf);
+        }
+        Layout known = LAYOUTS.get(helper.getKey());
+        if (known == null) {
+            known = Layout.of(leaf);
+            if (LAYOUTS.putIfAbsent(helper.getKey(), known) == null) {
+                helper.addClosedListener(LAYOUTS::remove);
+            }
+        }
+        return known;
+    }
+
+    /** One segment's layout and, for this search, the matches found in each window visited. */
+    private static final class Visits {
+        final Layout layout;
+        final int[] from;
+        final int[] count;
+        int[] docs = new int[256];
+        int size;
+
+        Visits(Layout layout) {
+            this.layout = layout;
+            this.from = new int[layout.start().length];
+            this.count = new int[layout.start().length];
+        }
+
+        void add(int window, int doc) {
+            if (size == docs.length) {
+                docs = java.util.Arrays.copyOf(docs, size * 2);
+            }
+            docs[size++] = doc;
+            count[window]++;
+        }
+    }
+
+    /** One family's windows in one segment, and how many of them, in their drawn order, are visited. */
     private static final class Stratum {
         final int leaf;
-        final List<Window> windows;
+        final int[] windows;
         int visited;
 
-        Stratum(int leaf, List<Window> windows) {
+        Stratum(int leaf, int[] windows) {
             this.leaf = leaf;
             this.windows = windows;
         }
 
         /** What each visited match stands for: the stratum's windows over those visited. */
         double weight() {
-            return visited == 0 ? 0 : (double) windows.size() / visited;
+            return visited == 0 ? 0 : (double) windows.length / visited;
         }
     }
 
@@ -102,20 +154,13 @@ final class MatchCounter {
         Weight weight = searcher.createWeight(searcher.rewrite(new ConstantScoreQuery(query)), ScoreMode.COMPLETE_NO_SCORES, 1);
         List<LeafReaderContext> leaves = searcher.getIndexReader().leaves();
         List<Stratum> strata = new ArrayList<>();
+        Visits[] visits = new Visits[leaves.size()];
         int windowCount = 0;
         for (int i = 0; i < leaves.size(); i++) {
-            for (int[] range : familyRanges(leaves.get(i))) {
-                List<Window> own = new ArrayList<>();
-                // Small families get smaller windows: a stratum of a few windows makes a coarse sample.
-                int size = Math.max(MIN_WINDOW, Math.min(WINDOW, (range[1] - range[0] + WINDOWS_PER_STRATUM - 1) / WINDOWS_PER_STRATUM));
-                for (int start = range[0], end; start < range[1]; start = end) {
-                    end = (int) Math.min(range[1], (long) start + size);
-                    own.add(new Window(i, start, end));
-                }
-                // The same draw for the same index: a repeated query gives the same estimate.
-                java.util.Collections.shuffle(own, new java.util.Random(SEED + 31L * i + range[0]));
+            visits[i] = new Visits(layout(leaves.get(i)));
+            for (int[] own : visits[i].layout.strata()) {
                 strata.add(new Stratum(i, own));
-                windowCount += own.size();
+                windowCount += own.length;
             }
         }
         long visitedMatches = 0;
@@ -123,21 +168,37 @@ final class MatchCounter {
         double fraction = Math.min(1.0, (double) FIRST_ROUND_WINDOWS / Math.max(1, windowCount));
         for (int round = 0; round < ROUNDS && visitedWindows < windowCount; round++) {
             int[] targets = new int[strata.size()];
-            List<Window> chosen = new ArrayList<>();
+            int[][] chosen = new int[leaves.size()][];
+            int[] chosenCount = new int[leaves.size()];
             for (int k = 0; k < strata.size(); k++) {
                 Stratum s = strata.get(k);
                 targets[k] = Math.max(s.visited,
-                        Math.min(s.windows.size(), Math.max(1, (int) Math.ceil(fraction * s.windows.size()))));
-                chosen.addAll(s.windows.subList(s.visited, targets[k]));
+                        Math.min(s.windows.length, Math.max(1, (int) Math.ceil(fraction * s.windows.length))));
+                int n = targets[k] - s.visited;
+                if (chosen[s.leaf] == null) {
+                    chosen[s.leaf] = new int[Math.max(16, n)];
+                } else if (chosenCount[s.leaf] + n > chosen[s.leaf].length) {
+                    chosen[s.leaf] = java.util.Arrays.copyOf(chosen[s.leaf], Math.max(chosenCount[s.leaf] + n, 2 * chosen[s.leaf].length));
+                }
+                System.arraycopy(s.windows, s.visited, chosen[s.leaf], chosenCount[s.leaf], n);
+                chosenCount[s.leaf] += n;
             }
-            visit(searcher, weight, leaves, chosen);
+            long before = 0;
+            for (Visits v : visits) {
+                before += v.size;
+            }
+            visit(searcher, weight, leaves, visits, chosen, chosenCount);
+            long after = 0;
+            for (Visits v : visits) {
+                after += v.size;
+            }
             for (int k = 0; k < strata.size(); k++) {
                 strata.get(k).visited = targets[k];
             }
-            for (Window w : chosen) {
-                visitedMatches += w.seen;
+            for (int c : chosenCount) {
+                visitedWindows += c;
             }
-            visitedWindows += chosen.size();
+            visitedMatches += after - before;
             long budget = cap - visitedMatches;
             if (budget <= 0) {
                 break;
@@ -155,15 +216,17 @@ final class MatchCounter {
             int index = i;
             tally.add(() -> {
                 Segment segment = new Segment(leaf, freshness);
+                Visits v = visits[index];
                 for (Stratum s : strata) {
                     if (s.leaf != index) {
                         continue;
                     }
                     double each = s.weight();
-                    for (Window w : s.windows.subList(0, s.visited)) {
-                        segment.total += w.seen * each;
-                        for (int d = 0; d < w.seen; d++) {
-                            segment.add(w.docs[d], each);
+                    for (int k = 0; k < s.visited; k++) {
+                        int w = s.windows[k];
+                        segment.total += v.count[w] * each;
+                        for (int d = v.from[w], last = v.from[w] + v.count[w]; d < last; d++) {
+                            segment.add(v.docs[d], each);
                         }
                     }
                 }
@@ -218,42 +281,49 @@ final class MatchCounter {
 
     /**
      * Visits the chosen windows whole, each segment's in document order by one task (its windows share one
-     * scorer, whose iterator only moves forward), the segments at the same time.
+     * scorer, whose iterator only moves forward), the segments at the same time. Window ids are in document
+     * order, so sorting the ids sorts the windows.
      */
-    private static void visit(IndexSearcher searcher, Weight weight, List<LeafReaderContext> leaves, List<Window> chosen)
-            throws IOException {
-        List<List<Window>> byLeaf = new ArrayList<>();
-        leaves.forEach(l -> byLeaf.add(new ArrayList<>()));
-        chosen.forEach(w -> byLeaf.get(w.leaf).add(w));
+    private static void visit(IndexSearcher searcher, Weight weight, List<LeafReaderContext> leaves, Visits[] visits,
+            int[][] chosen, int[] chosenCount) throws IOException {
         List<java.util.concurrent.Callable<Void>> tasks = new ArrayList<>();
         for (int i = 0; i < leaves.size(); i++) {
-            List<Window> own = byLeaf.get(i);
-            if (own.isEmpty()) {
+            if (chosenCount[i] == 0) {
                 continue;
             }
-            own.sort(java.util.Comparator.comparingInt(w -> w.start));
+            int[] own = chosen[i];
+            int n = chosenCount[i];
+            java.util.Arrays.sort(own, 0, n);
             LeafReaderContext leaf = leaves.get(i);
+            Visits v = visits[i];
             tasks.add(() -> {
-                visitLeaf(weight, leaf, own);
+                visitLeaf(weight, leaf, v, own, n);
                 return null;
             });
         }
         searcher.getTaskExecutor().invokeAll(tasks);
     }
 
-    private static void visitLeaf(Weight weight, LeafReaderContext leaf, List<Window> windows) throws IOException {
+    private static void visitLeaf(Weight weight, LeafReaderContext leaf, Visits v, int[] windows, int n) throws IOException {
         Scorer scorer = weight.scorer(leaf);
         if (scorer == null) {
+            for (int k = 0; k < n; k++) {
+                v.from[windows[k]] = v.size;
+            }
             return;
         }
         TwoPhaseIterator twoPhase = scorer.twoPhaseIterator();
         DocIdSetIterator docs = twoPhase == null ? scorer.iterator() : TwoPhaseIterator.asDocIdSetIterator(twoPhase);
         Bits live = leaf.reader().getLiveDocs();
-        for (Window w : windows) {
-            int doc = docs.docID() < w.start ? docs.advance(w.start) : docs.docID();
-            while (doc < w.end) {
+        int[] start = v.layout.start();
+        int[] end = v.layout.end();
+        for (int k = 0; k < n; k++) {
+            int w = windows[k];
+            v.from[w] = v.size;
+            int doc = docs.docID() < start[w] ? docs.advance(start[w]) : docs.docID();
+            while (doc < end[w]) {
                 if (live == null || live.get(doc)) {
-                    w.add(doc);
+                    v.add(w, doc);
                 }
                 doc = docs.nextDoc();
             }
