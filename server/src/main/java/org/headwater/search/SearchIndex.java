@@ -28,9 +28,6 @@ import org.apache.lucene.search.SearcherFactory;
 import org.apache.lucene.search.SearcherManager;
 import org.apache.lucene.search.TopDocs;
 import org.apache.lucene.search.TopScoreDocCollectorManager;
-import org.apache.lucene.search.spell.DirectSpellChecker;
-import org.apache.lucene.search.spell.SuggestMode;
-import org.apache.lucene.search.spell.SuggestWord;
 import org.apache.lucene.search.uhighlight.DefaultPassageFormatter;
 import org.apache.lucene.search.uhighlight.UnifiedHighlighter;
 import org.apache.lucene.store.ByteBuffersDirectory;
@@ -79,7 +76,6 @@ public final class SearchIndex implements ChangeListener, AutoCloseable {
     /** Column documents repeat their names, types and dataset's name: analysed once, replayed after. */
     private final RepeatedTokens repeated = new RepeatedTokens(Documents.indexAnalyzer());
     private static final LuceneQueries QUERIES = new LuceneQueries();
-    private final DirectSpellChecker spelling = new DirectSpellChecker();
     private volatile Ranks ranks = Ranks.NONE;
     private volatile boolean ranksStale = true;
     private volatile FreshnessProvider freshness = FreshnessProvider.UNKNOWN;
@@ -546,7 +542,7 @@ public final class SearchIndex implements ChangeListener, AutoCloseable {
                 Vocabulary known = Vocabulary.of(searcher.getIndexReader());
                 Query allWords = QUERIES.text(text, LuceneQueries.Mode.ALL_WORDS, known);
                 if (allWords == null && text.hasText()) {
-                    return empty(request, searcher, text);
+                    return empty(request, known, text);
                 }
                 int depth = request.page() * request.size();
                 Query query = QUERIES.combined(allWords, filter);
@@ -578,7 +574,7 @@ public final class SearchIndex implements ChangeListener, AutoCloseable {
                 }
                 hits = withSnippets(searcher, hits, ranked.subList(from, ranked.size()), textQuery);
                 return new SearchResult(request.text(), counted.total(), counted.exact(), request.page(), request.size(),
-                        hits, counted.facets(), suggestion(searcher, text));
+                        hits, counted.facets(), suggestion(known, text));
             } finally {
                 searchers.release(searcher);
             }
@@ -587,9 +583,9 @@ public final class SearchIndex implements ChangeListener, AutoCloseable {
         }
     }
 
-    private SearchResult empty(SearchRequest request, IndexSearcher searcher, QueryText text) throws IOException {
+    private SearchResult empty(SearchRequest request, Vocabulary known, QueryText text) {
         return new SearchResult(request.text(), 0, true, request.page(), request.size(), List.of(), emptyFacets(),
-                suggestion(searcher, text));
+                suggestion(known, text));
     }
 
     /**
@@ -774,20 +770,25 @@ public final class SearchIndex implements ChangeListener, AutoCloseable {
     }
 
     /**
-     * "Did you mean": each word that occurs in no document is replaced by the closest word that does (at
-     * most two edits away); null when every word occurs or nothing close exists.
+     * "Did you mean": each word that occurs in no document is replaced by the closest word that does (one
+     * edit away for words under eight letters, two from eight, or two when nothing is one away; the first
+     * letter kept, the most used first among equally close ones); null when every word occurs or nothing
+     * close exists. It asks the search's vocabulary, which already looked up the typed words and their near
+     * words while the query was built.
      */
-    private String suggestion(IndexSearcher searcher, QueryText text) throws IOException {
-        IndexReader reader = searcher.getIndexReader();
+    private static String suggestion(Vocabulary known, QueryText text) {
         boolean changed = false;
         List<String> out = new ArrayList<>();
         for (String word : text.words()) {
             String lower = word.toLowerCase(java.util.Locale.ROOT);
-            Term term = new Term(Documents.WORDS, lower);
-            if (lower.length() >= 4 && reader.docFreq(term) == 0) {
-                SuggestWord[] similar = spelling.suggestSimilar(term, 1, reader, SuggestMode.SUGGEST_WHEN_NOT_IN_INDEX);
-                if (similar.length > 0) {
-                    out.add(similar[0].string);
+            if (lower.length() >= 4 && !known.has(lower)) {
+                int edits = Math.max(1, LuceneQueries.editsFor(lower));
+                List<Vocabulary.Near> near = known.near(lower, edits);
+                if (near.isEmpty() && edits < 2) {
+                    near = known.near(lower, 2);
+                }
+                if (!near.isEmpty()) {
+                    out.add(near.get(0).word());
                     changed = true;
                     continue;
                 }

@@ -43,8 +43,28 @@ interface Vocabulary {
         }
     };
 
-    /** The vocabulary of an index reader's {@code words} field. */
+    /**
+     * The vocabulary of an index reader's {@code words} field, remembering its answers: one search asks about
+     * the same word while building its query and again for its "did you mean". Not for sharing across threads.
+     */
     static Vocabulary of(IndexReader reader) {
+        Vocabulary direct = direct(reader);
+        java.util.Map<String, Boolean> known = new java.util.HashMap<>();
+        java.util.Map<String, List<Near>> near = new java.util.HashMap<>();
+        return new Vocabulary() {
+            @Override
+            public boolean has(String word) {
+                return known.computeIfAbsent(word, direct::has);
+            }
+
+            @Override
+            public List<Near> near(String word, int edits) {
+                return near.computeIfAbsent(edits + ":" + word, k -> direct.near(word, edits));
+            }
+        };
+    }
+
+    private static Vocabulary direct(IndexReader reader) {
         return new Vocabulary() {
             @Override
             public boolean has(String word) {
