@@ -62,33 +62,22 @@ public final class SearchBenchmark {
             for (String q : queries.subList(0, 200)) {
                 index.search(SearchRequest.of(q, null, 10));
             }
-            long[] nanos = new long[1000];
-            long[][] byKind = new long[KINDS.length][nanos.length / KINDS.length];
-            for (int i = 0; i < nanos.length; i++) {
-                String q = queries.get(i % queries.size());
-                long s = System.nanoTime();
-                index.search(SearchRequest.of(q, null, 10));
-                nanos[i] = System.nanoTime() - s;
-                byKind[i % KINDS.length][i / KINDS.length] = nanos[i];
+            // The first 1,000 queries after a short warm-up still run while the JIT compiles the search; a
+            // server answers for hours, so the target is read off the steady state, after 20 s of the same mix,
+            // as a latency benchmark's warm-up does (JMH warms up for 5 × 10 s by default). Both are printed.
+            Latencies early = measure(index, queries);
+            early.print("first 1,000 queries after 200 of warm-up");
+            long warmUntil = System.nanoTime() + 20_000_000_000L;
+            int warmed = 0;
+            while (System.nanoTime() < warmUntil) {
+                index.search(SearchRequest.of(queries.get(warmed++ % queries.size()), null, 10));
             }
-            Arrays.sort(nanos);
-            double[][] kindFigures = new double[KINDS.length][];
-            for (int k = 0; k < KINDS.length; k++) {
-                Arrays.sort(byKind[k]);
-                kindFigures[k] = new double[] {ms(byKind[k][byKind[k].length / 2]),
-                    ms(byKind[k][(int) (byKind[k].length * 0.95)])};
-            }
+            Latencies settled = measure(index, queries);
+            settled.print(String.format(Locale.ROOT, "steady state, 1,000 queries after %,d more in 20 s (target p95 < 10 ms)", warmed));
+            // Against LIKE, which is timed without a warm-up, the first pass's median: the smaller ratio.
+            double p50 = early.p50;
             System.gc();
             long heapAfter = usedHeap();
-            double p50 = ms(nanos[nanos.length / 2]);
-            double p95 = ms(nanos[(int) (nanos.length * 0.95)]);
-            double p99 = ms(nanos[(int) (nanos.length * 0.99)]);
-            System.out.printf(Locale.ROOT, "search, %d mixed queries (words, two words, prefixes, typos, phrases, filters), top 10 with facets and snippets:%n"
-                    + "  p50 %.2f ms, p95 %.2f ms, p99 %.2f ms (target p95 < 10 ms)%n", nanos.length, p50, p95, p99);
-            for (int k = 0; k < KINDS.length; k++) {
-                System.out.printf(Locale.ROOT, "  %-14s p50 %6.2f ms, p95 %6.2f ms%n", KINDS[k], kindFigures[k][0],
-                        kindFigures[k][1]);
-            }
             System.out.printf(Locale.ROOT, "heap used after build and queries: %.0f MiB (%.0f MiB before the index opened)%n",
                     heapAfter / 1048576.0, heapBefore / 1048576.0);
 
@@ -114,6 +103,37 @@ public final class SearchBenchmark {
                 paths.sorted(java.util.Comparator.reverseOrder()).forEach(p -> p.toFile().delete());
             }
         }
+    }
+
+    /** Latency figures of one pass over the measured queries, overall and by kind of query. */
+    private record Latencies(double p50, double p95, double p99, double[][] byKind) {
+        void print(String what) {
+            System.out.printf(Locale.ROOT, "search, %s (words, two words, prefixes, typos, phrases, filters; top 10 with facets and snippets):%n"
+                    + "  p50 %.2f ms, p95 %.2f ms, p99 %.2f ms%n", what, p50, p95, p99);
+            for (int k = 0; k < KINDS.length; k++) {
+                System.out.printf(Locale.ROOT, "  %-14s p50 %6.2f ms, p95 %6.2f ms%n", KINDS[k], byKind[k][0], byKind[k][1]);
+            }
+        }
+    }
+
+    private static Latencies measure(SearchIndex index, List<String> queries) {
+        long[] nanos = new long[1000];
+        long[][] byKind = new long[KINDS.length][nanos.length / KINDS.length];
+        for (int i = 0; i < nanos.length; i++) {
+            String q = queries.get(i % queries.size());
+            long s = System.nanoTime();
+            index.search(SearchRequest.of(q, null, 10));
+            nanos[i] = System.nanoTime() - s;
+            byKind[i % KINDS.length][i / KINDS.length] = nanos[i];
+        }
+        Arrays.sort(nanos);
+        double[][] kindFigures = new double[KINDS.length][];
+        for (int k = 0; k < KINDS.length; k++) {
+            Arrays.sort(byKind[k]);
+            kindFigures[k] = new double[] {ms(byKind[k][byKind[k].length / 2]), ms(byKind[k][(int) (byKind[k].length * 0.95)])};
+        }
+        return new Latencies(ms(nanos[nanos.length / 2]), ms(nanos[(int) (nanos.length * 0.95)]),
+                ms(nanos[(int) (nanos.length * 0.99)]), kindFigures);
     }
 
     private static void likeSearch(Connection c, String word) throws Exception {
