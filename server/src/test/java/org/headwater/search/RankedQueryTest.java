@@ -25,8 +25,8 @@ class RankedQueryTest {
 
     @Test
     void tiedScoreIsBelowTheThresholdForTheNextFloatAboveItsProduct() {
-        // A tie of the benchmark catalog: 1,025.093 text score, factor 0.6 (common practice, no source: the
-        // top-hit collector asks for the float above its last hit's score, as Lucene's TopScoreDocCollector does).
+        // The collector's minimum is the float above its last hit's score, as Lucene 9.12's TopScoreDocCollector
+        // asks (its source); the text score and factor are a tie seen on the benchmark's invented catalog.
         float text = 1025.093f;
         float factor = 0.6f;
         float threshold = RankedQuery.leastCompeting(Math.nextUp(text * factor), factor);
