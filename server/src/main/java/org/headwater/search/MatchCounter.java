@@ -168,37 +168,29 @@ final class MatchCounter {
         double fraction = Math.min(1.0, (double) FIRST_ROUND_WINDOWS / Math.max(1, windowCount));
         for (int round = 0; round < ROUNDS && visitedWindows < windowCount; round++) {
             int[] targets = new int[strata.size()];
+            // A segment's chosen windows, at most all of its windows.
             int[][] chosen = new int[leaves.size()][];
             int[] chosenCount = new int[leaves.size()];
+            for (int i = 0; i < leaves.size(); i++) {
+                chosen[i] = new int[visits[i].layout.start().length];
+            }
             for (int k = 0; k < strata.size(); k++) {
                 Stratum s = strata.get(k);
                 targets[k] = Math.max(s.visited,
                         Math.min(s.windows.length, Math.max(1, (int) Math.ceil(fraction * s.windows.length))));
                 int n = targets[k] - s.visited;
-                if (chosen[s.leaf] == null) {
-                    chosen[s.leaf] = new int[Math.max(16, n)];
-                } else if (chosenCount[s.leaf] + n > chosen[s.leaf].length) {
-                    chosen[s.leaf] = java.util.Arrays.copyOf(chosen[s.leaf], Math.max(chosenCount[s.leaf] + n, 2 * chosen[s.leaf].length));
-                }
                 System.arraycopy(s.windows, s.visited, chosen[s.leaf], chosenCount[s.leaf], n);
                 chosenCount[s.leaf] += n;
             }
-            long before = 0;
-            for (Visits v : visits) {
-                before += v.size;
-            }
             visit(searcher, weight, leaves, visits, chosen, chosenCount);
-            long after = 0;
-            for (Visits v : visits) {
-                after += v.size;
-            }
             for (int k = 0; k < strata.size(); k++) {
                 strata.get(k).visited = targets[k];
             }
-            for (int c : chosenCount) {
-                visitedWindows += c;
+            visitedMatches = 0;
+            for (int i = 0; i < leaves.size(); i++) {
+                visitedWindows += chosenCount[i];
+                visitedMatches += visits[i].size;
             }
-            visitedMatches += after - before;
             long budget = cap - visitedMatches;
             if (budget <= 0) {
                 break;
@@ -307,9 +299,7 @@ final class MatchCounter {
     private static void visitLeaf(Weight weight, LeafReaderContext leaf, Visits v, int[] windows, int n) throws IOException {
         Scorer scorer = weight.scorer(leaf);
         if (scorer == null) {
-            for (int k = 0; k < n; k++) {
-                v.from[windows[k]] = v.size;
-            }
+            // Nothing matches here: every window's count stays 0.
             return;
         }
         TwoPhaseIterator twoPhase = scorer.twoPhaseIterator();
