@@ -4,15 +4,17 @@ import org.jooq.SQLDialect;
 
 /** The databases a catalog can live in, told apart by the JDBC URL. */
 public enum StoreDialect {
-    H2(SQLDialect.H2, "jdbc:h2:"),
-    POSTGRESQL(SQLDialect.POSTGRES, "jdbc:postgresql:");
+    H2(SQLDialect.H2, "jdbc:h2:", "h2"),
+    POSTGRESQL(SQLDialect.POSTGRES, "jdbc:postgresql:", "postgresql");
 
     private final SQLDialect jooq;
     private final String urlPrefix;
+    private final String migrationFolder;
 
-    StoreDialect(SQLDialect jooq, String urlPrefix) {
+    StoreDialect(SQLDialect jooq, String urlPrefix, String migrationFolder) {
         this.jooq = jooq;
         this.urlPrefix = urlPrefix;
+        this.migrationFolder = migrationFolder;
     }
 
     /** The dialect of a JDBC URL; anything else is refused with the URLs that work. */
@@ -31,10 +33,16 @@ public enum StoreDialect {
     }
 
     /**
-     * Where Flyway finds the migrations: one portable folder for every database. A migration that truly
-     * cannot be written portably would go in an extra folder per dialect, listed here.
+     * Where Flyway finds the migrations: the portable folder, then this database's own folder for the few
+     * that cannot be written portably. Each dialect folder holds the same versions (one may be a no-op), so
+     * that {@link Store#LATEST_MIGRATION} holds for every database.
      */
     String[] migrationLocations() {
-        return new String[] {"classpath:db/migration"};
+        return new String[] {"classpath:db/migration", "classpath:db/" + migrationFolder};
+    }
+
+    /** The name of this database's own migration folder under {@code db/}. */
+    String migrationFolder() {
+        return migrationFolder;
     }
 }

@@ -19,16 +19,60 @@ class StoreTest {
     @TempDir
     Path temp;
 
+    private static final Path MIGRATIONS = Workspaces.repoRoot().resolve("server/src/main/resources/db");
+
     @Test
     void theLatestMigrationConstantNamesTheNewestMigrationFile() throws IOException {
-        Path folder = Workspaces.repoRoot().resolve("server/src/main/resources/db/migration");
-        Pattern version = Pattern.compile("V(\\d+)__.*\\.sql");
-        int newest;
-        try (Stream<Path> files = Files.list(folder)) {
-            newest = files.map(f -> version.matcher(f.getFileName().toString())).filter(Matcher::matches)
-                    .mapToInt(m -> Integer.parseInt(m.group(1))).max().orElseThrow();
+        int newest = 0;
+        for (String folder : List.of("migration", "h2", "postgresql")) {
+            newest = Math.max(newest, versions(folder).stream().mapToInt(Integer::intValue).max().orElse(0));
         }
         assertThat(Store.LATEST_MIGRATION).isEqualTo(Integer.toString(newest));
+    }
+
+    @Test
+    void everyDatabaseFolderCarriesTheSameMigrationVersions() throws IOException {
+        // Otherwise the newest version would be applied on one database and never reported by the other.
+        for (StoreDialect d : StoreDialect.values()) {
+            assertThat(versions(d.migrationFolder())).as(d.name()).isEqualTo(versions(StoreDialect.H2.migrationFolder()));
+        }
+    }
+
+    @Test
+    void everyIdentityColumnDrawsItsValuesAsThisDatabaseNeeds() {
+        try (Store store = Store.open(TestCatalogs.freshStore("blocks"))) {
+            java.util.Map<String, Long> caches = new java.util.TreeMap<>();
+            java.util.Map<String, Long> expected = new java.util.TreeMap<>();
+            for (org.jooq.Table<?> t : org.headwater.store.schema.DefaultSchema.DEFAULT_SCHEMA.getTables()) {
+                if (t.getIdentity() == null) {
+                    continue;
+                }
+                String table = t.getName().toLowerCase(java.util.Locale.ROOT);
+                String column = t.getIdentity().getField().getName().toLowerCase(java.util.Locale.ROOT);
+                // H2: blocks of 10,000 (V15); PostgreSQL: one value per draw, its default (PostgreSQL docs,
+                // CREATE SEQUENCE: "The default is 1").
+                expected.put(table + "." + column, TestCatalogs.onPostgres() ? 1L : 10_000L);
+                caches.put(table + "." + column, TestCatalogs.onPostgres()
+                        ? store.dsl().resultQuery("select seqcache from pg_sequence where seqrelid ="
+                                + " pg_get_serial_sequence(?, ?)::regclass", table, column).fetchOne(0, Long.class)
+                        : store.dsl().resultQuery("select identity_cache from information_schema.columns"
+                                + " where lower(table_name) = ? and lower(column_name) = ?", table, column)
+                                .fetchOne(0, Long.class));
+            }
+            assertThat(caches).hasSize(23).isEqualTo(expected);
+        }
+    }
+
+    private static List<Integer> versions(String folder) throws IOException {
+        Pattern version = Pattern.compile("V(\\d+)__.*\\.sql");
+        Path dir = MIGRATIONS.resolve(folder);
+        if (!Files.isDirectory(dir)) {
+            return List.of();
+        }
+        try (Stream<Path> files = Files.list(dir)) {
+            return files.map(f -> version.matcher(f.getFileName().toString())).filter(Matcher::matches)
+                    .map(m -> Integer.parseInt(m.group(1))).sorted().toList();
+        }
     }
 
     @Test
