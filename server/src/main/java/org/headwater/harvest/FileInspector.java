@@ -90,23 +90,24 @@ final class FileInspector {
         boolean hash = backend.hashesContent() && size <= hashCapBytes;
         MessageDigest digest = hash ? sha256() : null;
         byte[] head = new byte[(int) Math.min(sampleBytes, size)];
-        int filled = 0;
+        int filled;
         try (InputStream in = backend.open(object, hash ? size : head.length)) {
-            byte[] buffer = new byte[64 * 1024];
-            int n;
-            while ((n = in.read(buffer)) > 0) {
-                if (filled < head.length) {
-                    int take = Math.min(n, head.length - filled);
-                    System.arraycopy(buffer, 0, head, filled, take);
-                    filled += take;
-                }
-                if (!hash) {
-                    if (filled >= head.length) {
-                        break;
+            // Straight into the sample: most files fit in it whole, and a 64 KiB buffer per file besides
+            // was 3 GiB of allocation in a 50,000-file harvest.
+            filled = in.readNBytes(head, 0, head.length);
+            if (hash) {
+                digest.update(head, 0, filled);
+                // Whatever follows the sample is hashed too (a file larger than the sample, or one that grew
+                // since it was listed).
+                int next = filled == head.length ? in.read() : -1;
+                if (next >= 0) {
+                    digest.update((byte) next);
+                    byte[] buffer = new byte[64 * 1024];
+                    int n;
+                    while ((n = in.read(buffer)) > 0) {
+                        digest.update(buffer, 0, n);
                     }
-                    continue;
                 }
-                digest.update(buffer, 0, n);
             }
         }
         byte[] bytes = filled == head.length ? head : Arrays.copyOf(head, filled);

@@ -30,10 +30,14 @@ public final class Store implements AutoCloseable {
         this.pool = pool;
         // Names are rendered unquoted so that each database applies its own case rule to the
         // migrations' unquoted identifiers (H2 upper-cases them, PostgreSQL lower-cases them).
+        // Timestamps are bound as java.time values (JDBC 4.2 setObject), which H2 2 and PostgreSQL's driver both
+        // take: jOOQ's default binds them as formatted text, which the database then parses again, twice per
+        // partition row of a harvest.
         Settings settings = new Settings()
                 .withRenderQuotedNames(RenderQuotedNames.NEVER)
                 .withExecuteLogging(false)
-                .withRenderSchema(false);
+                .withRenderSchema(false)
+                .withBindOffsetDateTimeType(true);
         this.dsl = DSL.using(dataSource, dialect.jooq(), settings);
     }
 

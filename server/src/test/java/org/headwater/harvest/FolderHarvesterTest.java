@@ -147,6 +147,33 @@ class FolderHarvesterTest {
     }
 
     @Test
+    void filesLargerThanTheSampleAreHashedWhole() throws Exception {
+        Path lake = Files.createDirectories(temp.resolve("lake"));
+        Files.write(lake.resolve("million-a.txt"), "a".repeat(1_000_000).getBytes(StandardCharsets.US_ASCII));
+        // Either side of the 64 KiB sample: the whole file in the sample, and one byte beyond it.
+        byte[] exact = "x,y\n1,2\n".repeat(65_536 / 8).getBytes(StandardCharsets.US_ASCII);
+        byte[] oneMore = java.util.Arrays.copyOf(exact, exact.length + 1);
+        oneMore[exact.length] = '\n';
+        Files.write(lake.resolve("exact.csv"), exact);
+        Files.write(lake.resolve("one-more.csv"), oneMore);
+        try (Catalog catalog = TestCatalogs.fresh(temp.resolve("catalog"))) {
+            catalog.harvestFolder(lake, false, HarvestProgress.NONE);
+            java.util.Map<String, String> hashes = new java.util.TreeMap<>();
+            for (var d : catalog.reader().datasets(null, 0, 10, null)) {
+                hashes.put(d.name(), catalog.reader().dataset(d.id(), null).orElseThrow().contentHash());
+            }
+            var sha256 = java.security.MessageDigest.getInstance("SHA-256");
+            assertThat(exact).hasSize(65_536);
+            // expected: FIPS 180-2, Appendix B.3 (one million "a"), from memory; the other two: the JDK's own
+            // SHA-256 (java.security.MessageDigest) over the file's bytes
+            assertThat(hashes).containsExactly(
+                    java.util.Map.entry("exact.csv", java.util.HexFormat.of().formatHex(sha256.digest(exact))),
+                    java.util.Map.entry("million-a.txt", "cdc76e5c9914fb9281a1c7e284d73e67f1809a48a497200e046d39ccc7112cd0"),
+                    java.util.Map.entry("one-more.csv", java.util.HexFormat.of().formatHex(sha256.digest(oneMore))));
+        }
+    }
+
+    @Test
     void filesSharingAPartitionPatternBecomeOneSetWithTheUnionSchemaAndItsDrift() throws Exception {
         Path lake = Files.createDirectories(temp.resolve("lake"));
         Path jan = Files.createDirectories(lake.resolve("gauges/month=01")).resolve("levels.csv");
