@@ -33,7 +33,7 @@ public final class TextDecoding {
         }
         // A sample cut from a longer file may end inside a multi-byte character: drop that tail.
         int length = complete ? bytes.length : utf8Boundary(bytes);
-        if (ascii(bytes, length)) {
+        if (org.headwater.harvest.format.csv.EncodingDetector.isAscii(bytes, length)) {
             // Valid UTF-8 as it is, one character per byte: copied straight into a compact string.
             return new Decoded(new String(bytes, 0, length, StandardCharsets.US_ASCII), StandardCharsets.UTF_8, false);
         }
@@ -45,15 +45,6 @@ public final class TextDecoding {
         } catch (CharacterCodingException notUtf8) {
             return new Decoded(new String(bytes, WINDOWS_1252), WINDOWS_1252, false);
         }
-    }
-
-    private static boolean ascii(byte[] bytes, int length) {
-        for (int i = 0; i < length; i++) {
-            if (bytes[i] < 0) {
-                return false;
-            }
-        }
-        return true;
     }
 
     /** True when the bytes contain a NUL outside a UTF-16 file, the cheapest sign of binary content. */

@@ -53,6 +53,16 @@ class JsonRecordsReaderTest {
     }
 
     @Test
+    void linesAreReadAsNdjsonOnlyWhenTheFirstLineClosesAnObjectAndAnotherOpensAfterIt() throws Exception {
+        // NDJSON: one JSON text per line (the ndjson-spec, "Newline Delimited JSON"); blank lines and spaces
+        // around the objects are whitespace. A pretty-printed object is one JSON text (RFC 8259), not lines.
+        assertThat(reader.read(whole("a.ndjson", "{\"a\": 1}  \r\n\n  \t{\"a\": 2}\n")).format()).isEqualTo("ndjson");
+        assertThat(reader.read(whole("b.json", "{\"a\": 1}\n   \n")).format()).isEqualTo("json");
+        assertThat(reader.read(whole("c.json", "{\n  \"rows\": [{\"a\": 1}]\n}\n")).format()).isEqualTo("json");
+        assertThat(reader.read(whole("d.json", "{\"rows\": [{\"a\": 1}]} \n[1]")).format()).isEqualTo("json");
+    }
+
+    @Test
     void invalidJsonIsAnErrorOnThatFileNotACrash() {
         assertThatThrownBy(() -> reader.read(whole("bad.json", "[{\"a\": 1}, {\"a\": ")))
                 .isInstanceOf(UnreadableFileException.class)

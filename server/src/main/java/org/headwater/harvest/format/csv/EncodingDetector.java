@@ -56,7 +56,7 @@ public final class EncodingDetector {
       }
       return new DetectedEncoding(utf16, 0, DetectedEncoding.Basis.UTF16_ZERO_PATTERN);
     }
-    if (isValid(StandardCharsets.UTF_8, head, probeLength, truncated)) {
+    if (isAscii(head, probeLength) || isValid(StandardCharsets.UTF_8, head, probeLength, truncated)) {
       return new DetectedEncoding(StandardCharsets.UTF_8, 0, DetectedEncoding.Basis.VALID_UTF8);
     }
     if (controlCharacterShare(head, probeLength) > 0.01) {
@@ -142,6 +142,16 @@ public final class EncodingDetector {
       return StandardCharsets.UTF_16BE;
     }
     return null;
+  }
+
+  /** Whether the first {@code length} bytes are all ASCII, and so valid UTF-8 as they are. */
+  public static boolean isAscii(byte[] b, int length) {
+    for (int i = 0; i < length; i++) {
+      if (b[i] < 0) {
+        return false;
+      }
+    }
+    return true;
   }
 
   /** Whether the first {@code length} bytes decode without error (a cut tail is allowed). */
