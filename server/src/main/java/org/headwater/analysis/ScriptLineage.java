@@ -62,9 +62,14 @@ public final class ScriptLineage {
         return new WorkspaceAnalysis().analyze(root, scripts, AnalysisContext.defaults());
     }
 
-    /** The observations for one harvested folder whose scripts were analysed already. */
-    public List<Observation> observe(Path root, long sourceId, String sourceName, List<ScriptAnalysis> analyses) {
-        Map<String, String> names = reader.namesOfSource(sourceId);
+    /**
+     * The observations for one harvested folder whose scripts were analysed already.
+     *
+     * @param names the name and URI of each dataset the source holds, and each partition's name with its set's
+     *     URI, as {@link CatalogReader#namesOfSource} reads them: the harvest passes its own account
+     */
+    public List<Observation> observe(Path root, long sourceId, String sourceName, List<ScriptAnalysis> analyses,
+            Map<String, String> names) {
         SuffixIndex suffixes = new SuffixIndex(names);
         Map<String, ScriptView> scripts = new LinkedHashMap<>();
         for (ScriptView s : reader.scripts(0, Integer.MAX_VALUE)) {

@@ -235,6 +235,13 @@ public final class FolderHarvester {
         int errors;
 
         final Map<String, List<StoredObject>> tableMembers = new TreeMap<>();
+        /**
+         * Name to URI of each dataset of this root present once the harvest is in, and of each partition (to
+         * its set's URI), read or unchanged: what the static analysis resolves references against, without
+         * reading 50,000 rows back from the store at the end of a harvest.
+         */
+        final Map<String, String> datasetNames = new HashMap<>();
+        final Map<String, String> partitionNames = new HashMap<>();
         /** The scripts this listing found, relative to the root in name order, for the static analysis. */
         List<Path> scriptPaths = List.of();
         /** The static analysis, started on the pool ahead of the files when anything is to be read; or null. */
@@ -308,6 +315,7 @@ public final class FolderHarvester {
                 datasets++;
                 seen.get(FileRole.DATASET).add(uri);
                 String name = prefix.isEmpty() ? backend.defaultName() : prefix.substring(0, prefix.length() - 1);
+                datasetNames.put(name, uri);
                 if (result.error() != null) {
                     error(uri, "unreadable_table", result.error());
                     add(new DatasetSeen(uri, name, DatasetKind.TABLE, sourceId, result.format(), null, null, null,
@@ -374,6 +382,9 @@ public final class FolderHarvester {
                     scripts++;
                 } else if (role == FileRole.DATASET) {
                     datasets++;
+                    datasetNames.put(f.name(), uri);
+                } else {
+                    partitionNames.put(f.name(), sets.get(placement.pattern()).uri());
                 }
                 KnownFile before = known.get(uri);
                 if (!options.full() && before != null && before.role() == role && unchanged(before, f)) {
@@ -460,6 +471,7 @@ public final class FolderHarvester {
                             reader.partitions(id, null));
                 }));
                 seen.get(FileRole.DATASET).add(set.uri());
+                datasetNames.put(set.name(), set.uri());
             }
             for (Future<Observation> set : assembled) {
                 add(await(set, "Assembling a partitioned set"));
@@ -538,7 +550,11 @@ public final class FolderHarvester {
             }
             try {
                 List<ScriptAnalysis> analyses = analysis != null ? analysis.get() : ScriptLineage.analyse(root, scriptPaths);
-                apply(scriptLineage.observe(root, sourceId, sourceName, analyses));
+                Map<String, String> names = new HashMap<>(datasetNames);
+                names.putAll(partitionNames);
+                // The harvest's own account must be the store's (checked whenever assertions are on: the tests).
+                assert names.equals(reader.namesOfSource(sourceId)) : "the harvest's dataset names differ from the store's";
+                apply(scriptLineage.observe(root, sourceId, sourceName, analyses, names));
             } catch (InterruptedException e) {
                 Thread.currentThread().interrupt();
                 error(root.toUri().toString(), "analysis_failed", "Script analysis interrupted");
