@@ -50,7 +50,7 @@ class StoreTest {
                 String table = t.getName().toLowerCase(java.util.Locale.ROOT);
                 String column = t.getIdentity().getField().getName().toLowerCase(java.util.Locale.ROOT);
                 // H2: blocks of 10,000 (V15); PostgreSQL: one value per draw, its default (PostgreSQL docs,
-                // CREATE SEQUENCE: "The default is 1").
+                // CREATE SEQUENCE, CACHE: the minimum is 1, no cache, "and this is also the default"; from memory).
                 expected.put(table + "." + column, TestCatalogs.onPostgres() ? 1L : 10_000L);
                 caches.put(table + "." + column, TestCatalogs.onPostgres()
                         ? store.dsl().resultQuery("select seqcache from pg_sequence where seqrelid ="
