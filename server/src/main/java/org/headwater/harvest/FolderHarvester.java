@@ -550,6 +550,7 @@ public final class FolderHarvester {
             }
             try {
                 List<ScriptAnalysis> analyses = analysis != null ? analysis.get() : ScriptLineage.analyse(root, scriptPaths);
+                // Partitions last, as CatalogReader.namesOfSource reads them: a partition's name stands for its set.
                 Map<String, String> names = new HashMap<>(datasetNames);
                 names.putAll(partitionNames);
                 // The harvest's own account must be the store's (checked whenever assertions are on: the tests).
